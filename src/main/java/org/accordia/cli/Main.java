@@ -1,0 +1,79 @@
+package org.accordia.cli;
+
+import java.io.PrintWriter;
+import java.util.Arrays;
+import org.accordia.io.InputException;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/** The command-line entry point: a thin layer over the library. The only place that exits. */
+@Command(
+    name = "accordia",
+    mixinStandardHelpOptions = true,
+    versionProvider = VersionProvider.class,
+    description = {
+        "Agreement, consensus and annotation-shift analysis for multi-centre segmentation studies.",
+        "A research and quality tool, not a diagnostic device. Nothing is sent anywhere."
+    },
+    subcommands = {
+        CommandLine.HelpCommand.class
+    },
+    exitCodeListHeading = "%nExit codes:%n",
+    exitCodeList = {
+        "0:completed",
+        "1:internal error (a bug; rerun with --debug and report it)",
+        "2:bad input or usage (one line names the file and the problem)",
+        "3:analyze --fail-on: a verdict reached the named level"
+    })
+public final class Main implements Runnable {
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public void run() {
+        throw new CommandLine.ParameterException(spec.commandLine(), "Missing subcommand");
+    }
+
+    /** Runs the command line and returns the exit code (no System.exit; tests call this). */
+    public static int execute(PrintWriter out, PrintWriter err, String... args) {
+        boolean debug = Arrays.asList(args).contains("--debug");
+        String[] filtered = Arrays.stream(args).filter(a -> !a.equals("--debug")).toArray(String[]::new);
+        CommandLine cl = new CommandLine(new Main());
+        cl.setOut(out);
+        cl.setErr(err);
+        cl.setExitCodeExceptionMapper(t -> t instanceof InputException ? ExitCodes.INPUT : ExitCodes.INTERNAL);
+        cl.setParameterExceptionHandler((ex, a) -> {
+            err.println("accordia: " + ex.getMessage().replace('\n', ' '));
+            err.flush();
+            return ExitCodes.INPUT;
+        });
+        cl.setExecutionExceptionHandler((ex, commandLine, parseResult) -> {
+            if (ex instanceof InputException ie) {
+                err.println("accordia: " + ie.getMessage());
+                if (debug) {
+                    ie.printStackTrace(err);
+                }
+                err.flush();
+                return ExitCodes.INPUT;
+            }
+            err.println("accordia: internal error: " + ex + (debug ? "" : " (rerun with --debug for details)"));
+            if (debug) {
+                ex.printStackTrace(err);
+            }
+            err.flush();
+            return ExitCodes.INTERNAL;
+        });
+        int code = cl.execute(filtered);
+        out.flush();
+        err.flush();
+        return code;
+    }
+
+    public static void main(String[] args) {
+        System.setProperty("java.awt.headless", "true");
+        PrintWriter out = new PrintWriter(System.out, true, java.nio.charset.StandardCharsets.UTF_8);
+        PrintWriter err = new PrintWriter(System.err, true, java.nio.charset.StandardCharsets.UTF_8);
+        System.exit(execute(out, err, args));
+    }
+}
