@@ -109,12 +109,22 @@ public final class SignedSurface {
         final long[] pat;
         final int readers;
         final double[] spacing;
+        private final boolean[][] readerBorders;
 
         Prepared(Box box, long[] pat, int readers, double[] spacing) {
             this.box = box;
             this.pat = pat;
             this.readers = readers;
             this.spacing = spacing;
+            this.readerBorders = new boolean[readers][];
+        }
+
+        /** Border flags of reader j on the box, computed once. */
+        boolean[] readerBorder(int j) {
+            if (readerBorders[j] == null) {
+                readerBorders[j] = Borders.borderMask(reader(j), box.nx(), box.ny(), box.nz());
+            }
+            return readerBorders[j];
         }
 
         boolean[] consensus(StapleResult s, long keep) {
@@ -158,7 +168,7 @@ public final class SignedSurface {
             }
             double[] d2 = DistanceTransform.squaredDistanceMm2(cb, nx, ny, nz, spacing[0], spacing[1], spacing[2]);
             for (int k = 0; k < readerIdx.length; k++) {
-                boolean[] rb = Borders.borderMask(reader(readerIdx[k]), nx, ny, nz);
+                boolean[] rb = readerBorder(readerIdx[k]);
                 double sum = 0;
                 long n = 0;
                 for (int i = 0; i < rb.length; i++) {

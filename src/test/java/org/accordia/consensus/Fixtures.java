@@ -72,7 +72,7 @@ final class Fixtures {
         return b;
     }
 
-    /** Random binary masks: perturbed balls on an n-voxel line folded into a cube-ish grid. */
+    /** Random binary masks: one perturbed ball per reader (own radius and shift) with random voxel flips. */
     static boolean[][] randomMasks(SplittableRandom rnd, int readers, int nx, int ny, int nz) {
         boolean[][] m = new boolean[readers][nx * ny * nz];
         double cx = nx / 2.0;
