@@ -13,9 +13,14 @@ import java.util.Arrays;
  *   <li>M-step: θ_j[s'][s] = Σ_i W_i[s]·[D_ij = s'] / Σ_i W_i[s].</li>
  *   <li>Prior f(s): pooled frequency of label s over all readers and voxels of the region
  *       (fixed during EM).</li>
- *   <li>Start: W is the majority-vote indicator (1 for the label with most votes); when several
- *       labels tie for most votes the weight is split equally between them. The M-step runs
- *       first.</li>
+ *   <li>Start ({@link MultiLabelStart}): W is the majority-vote indicator (1 for the label with
+ *       most votes) and the M-step runs first. By default, when several labels tie for most votes
+ *       the weight is split equally between them; {@link MultiLabelStart#MAJORITY_CONFUSION}
+ *       leaves tied voxels out of the first M-step instead, which equals an E-step from confusion
+ *       matrices initialised from the majority vote (the start of ITK's
+ *       MultiLabelSTAPLEImageFilter). EM finds a local optimum: the two starts can end at
+ *       different fixed points; compare them with
+ *       {@link MultiLabelStapleResult#logLikelihood()}.</li>
  *   <li>Converged when max |Δθ| over all readers and entries between two consecutive iterations
  *       is at most the tolerance (default 1e-10; the first iteration never counts), or after the
  *       iteration cap (default 10,000).</li>
@@ -39,6 +44,16 @@ public final class MultiLabelStaple {
      * @param undecided value for ties; must not be a real label
      */
     public static MultiLabelStapleResult run(LabelTupleHistogram h, StapleOptions options, int undecided) {
+        return run(h, options, undecided, MultiLabelStart.MAJORITY_WEIGHTS);
+    }
+
+    /**
+     * @param options tolerance, iteration cap and region (the fixed prior is not used)
+     * @param undecided value for ties; must not be a real label
+     * @param start how ties of the initial majority vote enter the first M-step
+     */
+    public static MultiLabelStapleResult run(LabelTupleHistogram h, StapleOptions options, int undecided,
+            MultiLabelStart start) {
         UndecidedLabel.checked(undecided, h.labels());
         final int r = h.readers();
         final int s = h.labelCount();
@@ -78,8 +93,9 @@ public final class MultiLabelStaple {
             for (int v : votes) {
                 ties += v == max ? 1 : 0;
             }
+            boolean skip = ties > 1 && start == MultiLabelStart.MAJORITY_CONFUSION;
             for (int k = 0; k < s; k++) {
-                w[i][k] = votes[k] == max ? 1.0 / ties : 0.0;
+                w[i][k] = votes[k] == max && !skip ? 1.0 / ties : 0.0;
             }
         }
         double[][][] theta = new double[r][s][s];

@@ -94,6 +94,34 @@ public record MultiLabelStapleResult(LabelTupleHistogram histogram, double[][][]
         return k < 0 ? undecided : histogram.label(k);
     }
 
+    /**
+     * Log-likelihood of the observed labels under the final parameters, Σ_i count_i · log Σ_s
+     * f(s) Π_j θ_j[D_ij][s] (natural log); higher is better when comparing EM starts.
+     */
+    public double logLikelihood() {
+        double ll = 0;
+        int s = prior.length;
+        for (int i = 0; i < posterior.length; i++) {
+            double lmax = Double.NEGATIVE_INFINITY;
+            double[] l = new double[s];
+            for (int k = 0; k < s; k++) {
+                double v = Math.log(prior[k]);
+                for (int j = 0; j < histogram.readers(); j++) {
+                    double t = theta[j][histogram.labelIndex(i, j)][k];
+                    v += Double.isNaN(t) ? Double.NEGATIVE_INFINITY : Math.log(t);
+                }
+                l[k] = v;
+                lmax = Math.max(lmax, v);
+            }
+            double sum = 0;
+            for (int k = 0; k < s; k++) {
+                sum += Math.exp(l[k] - lmax);
+            }
+            ll += histogram.count(i) * (lmax + Math.log(sum));
+        }
+        return ll;
+    }
+
     /** Voxels per consensus value (label values and possibly the undecided value), ascending. */
     public java.util.TreeMap<Integer, Long> consensusCounts() {
         java.util.TreeMap<Integer, Long> m = new java.util.TreeMap<>();

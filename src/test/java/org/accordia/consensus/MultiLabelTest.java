@@ -94,7 +94,8 @@ class MultiLabelTest {
      * Per-voxel oracle of multi-label STAPLE (Warfield et al. 2004, multi-label section; Rohlfing et
      * al. 2004): plain products over readers, voxel by voxel, same start and stopping rule.
      */
-    static double[][] perVoxelOracle(int[][] d, int s, double tol, int maxIter, double[][][] thetaOut) {
+    static double[][] perVoxelOracle(int[][] d, int s, double tol, int maxIter, double[][][] thetaOut,
+            boolean skipTies) {
         int r = d.length;
         int n = d[0].length;
         double[] f = new double[s];
@@ -112,7 +113,7 @@ class MultiLabelTest {
             int max = Arrays.stream(votes).max().getAsInt();
             long ties = Arrays.stream(votes).filter(v -> v == max).count();
             for (int k = 0; k < s; k++) {
-                w[i][k] = votes[k] == max ? 1.0 / ties : 0;
+                w[i][k] = votes[k] == max && !(skipTies && ties > 1) ? 1.0 / ties : 0;
             }
         }
         double[][][] last = null;
@@ -126,7 +127,7 @@ class MultiLabelTest {
                         th[j][d[j][i]][k] += w[i][k];
                     }
                     for (int a = 0; a < s; a++) {
-                        th[j][a][k] /= den;
+                        th[j][a][k] = den > 0 ? th[j][a][k] / den : Double.NaN;
                     }
                 }
             }
@@ -136,7 +137,7 @@ class MultiLabelTest {
                 for (int k = 0; k < s; k++) {
                     a[k] = f[k];
                     for (int j = 0; j < r; j++) {
-                        a[k] *= th[j][d[j][i]][k];
+                        a[k] *= Double.isNaN(th[j][d[j][i]][k]) ? 0 : th[j][d[j][i]][k];
                     }
                     sum += a[k];
                 }
@@ -148,7 +149,8 @@ class MultiLabelTest {
             for (int j = 0; j < r && done; j++) {
                 for (int a = 0; a < s; a++) {
                     for (int k = 0; k < s; k++) {
-                        done &= Math.abs(th[j][a][k] - last[j][a][k]) <= tol;
+                        done &= Math.abs(th[j][a][k] - last[j][a][k]) <= tol
+                            || Double.isNaN(th[j][a][k]) && Double.isNaN(last[j][a][k]);
                     }
                 }
             }
@@ -163,16 +165,17 @@ class MultiLabelTest {
         return w;
     }
 
-    @ParameterizedTest(name = "seed {0}, {1} readers, {2} labels")
-    @CsvSource({"1, 3, 3", "2, 5, 4", "3, 7, 3", "4, 4, 5"})
-    void emMatchesPerVoxelOracle(long seed, int readers, int labelCount) {
+    @ParameterizedTest(name = "seed {0}, {1} readers, {2} labels, {3}")
+    @CsvSource({"1, 3, 3, MAJORITY_WEIGHTS", "2, 5, 4, MAJORITY_WEIGHTS", "3, 7, 3, MAJORITY_WEIGHTS",
+        "4, 4, 5, MAJORITY_WEIGHTS", "2, 5, 4, MAJORITY_CONFUSION", "5, 6, 3, MAJORITY_CONFUSION"})
+    void emMatchesPerVoxelOracle(long seed, int readers, int labelCount, MultiLabelStart start) {
         int[] labels = new int[labelCount];
         for (int k = 0; k < labelCount; k++) {
             labels[k] = 2 * k; // 0, 2, 4, ...
         }
         List<LabelVolume> vols = randomVolumes(new SplittableRandom(seed), readers, labels, 12, 10, 6);
         LabelTupleHistogram h = LabelTupleHistogram.build(vols, labels);
-        MultiLabelStapleResult res = MultiLabelStaple.run(h);
+        MultiLabelStapleResult res = MultiLabelStaple.run(h, StapleOptions.defaults(), 2 * labelCount, start);
         int n = vols.get(0).voxelCount();
         int[][] d = new int[readers][n];
         for (int j = 0; j < readers; j++) {
@@ -181,7 +184,7 @@ class MultiLabelTest {
             }
         }
         double[][][] th = new double[readers][][];
-        double[][] w = perVoxelOracle(d, labelCount, 1e-10, 10_000, th);
+        double[][] w = perVoxelOracle(d, labelCount, 1e-10, 10_000, th, start == MultiLabelStart.MAJORITY_CONFUSION);
         assertTrue(res.converged());
         for (int j = 0; j < readers; j++) {
             for (int a = 0; a < labelCount; a++) {
@@ -196,7 +199,8 @@ class MultiLabelTest {
             int t = h.find(h.keyOf(idx));
             assertArrayEquals(w[i], res.posterior()[t], 1e-9);
         }
-        assertEquals(labels[labelCount - 1] + 1, res.undecided());
+        assertEquals(2 * labelCount, res.undecided());
+        assertEquals(labels[labelCount - 1] + 1, UndecidedLabel.defaultFor(labels));
     }
 
     @Test
