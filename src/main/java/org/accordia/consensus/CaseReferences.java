@@ -5,7 +5,6 @@ import java.util.List;
 import java.util.TreeMap;
 import java.util.TreeSet;
 import org.accordia.agreement.PatternHistogram;
-import org.accordia.io.Geometry;
 import org.accordia.io.LabelVolume;
 
 /**
@@ -220,10 +219,5 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
             out.add(base.get(t).withSignedSurfaceMm(mm[t]));
         }
         return out;
-    }
-
-    /** Geometry-free convenience: voxel volume of a grid. */
-    public static double voxelVolumeMl(Geometry g) {
-        return g.voxelVolumeMl();
     }
 }

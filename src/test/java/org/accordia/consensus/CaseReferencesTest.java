@@ -16,19 +16,24 @@ class CaseReferencesTest {
      * (BinaryStapleTest.perVoxelOracle) run on the masks of the reference readers only, thresholded
      * at W ≥ 0.5 voxel by voxel, and reader j's counts taken voxel by voxel.
      */
-    @ParameterizedTest(name = "seed {0}")
-    @CsvSource({"21", "22", "23"})
-    void rowsMatchPerVoxelOracle(long seed) {
+    @ParameterizedTest(name = "seed {0}, {1} readers")
+    @CsvSource({"21, 6", "22, 6", "23, 5", "24, 18"}) // 18 readers: the memoised (not dense) lookup
+    void rowsMatchPerVoxelOracle(long seed, int nReaders) {
         SplittableRandom rnd = new SplittableRandom(seed);
-        boolean[][] d = Fixtures.randomMasks(rnd, 6, 12, 12, 5);
-        List<String> readers = List.of("a", "b", "c", "d", "e", "f");
-        List<String> centres = List.of("north", "north", "south", "south", "south", "west");
+        boolean[][] d = Fixtures.randomMasks(rnd, nReaders, 12, 12, 5);
+        String[] centreNames = {"north", "north", "south", "south", "south", "west"};
+        List<String> readers = new java.util.ArrayList<>();
+        List<String> centres = new java.util.ArrayList<>();
+        for (int j = 0; j < nReaders; j++) {
+            readers.add(String.format("r%02d", j));
+            centres.add(centreNames[j % centreNames.length]);
+        }
         PatternHistogram h = Fixtures.histogram(d);
         double voxelMl = 0.002;
         CaseReferences refs = CaseReferences.compute("case7", "organ", readers, centres, h, voxelMl,
             StapleOptions.defaults());
         List<ReaderPerformance> rows = refs.rows();
-        assertEquals(18, rows.size());
+        assertEquals(3 * nReaders, rows.size());
         for (ReaderPerformance row : rows) {
             int j = readers.indexOf(row.reader());
             long keep = refs.keepMask(row.reference(), j);

@@ -142,15 +142,14 @@ class SignedSurfaceTest {
         return b;
     }
 
-    @ParameterizedTest(name = "seed {0}")
-    @CsvSource({"11", "12", "13"})
-    void caseReferencesMatchFullGridBruteForce(long seed) {
+    @ParameterizedTest(name = "seed {0}, nz {1}")
+    @CsvSource({"11, 6", "12, 6", "13, 6", "14, 1"}) // nz = 1: a 2-D image (4-connectivity)
+    void caseReferencesMatchFullGridBruteForce(long seed, int nz) {
         // Surfaces from the cropped box (CaseReferences.rowsWithSurfaces) against the plain
         // definition on the full grid with a brute-force nearest-border search, for every reference.
         SplittableRandom rnd = new SplittableRandom(seed);
         int nx = 16;
         int ny = 14;
-        int nz = 6;
         double[] sp = {0.8, 1.2, 2.0};
         boolean[][] d = Fixtures.randomMasks(rnd, 5, nx, ny, nz);
         List<LabelVolume> masks = new ArrayList<>();
