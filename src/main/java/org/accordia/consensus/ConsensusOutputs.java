@@ -1,0 +1,144 @@
+package org.accordia.consensus;
+
+import java.util.Arrays;
+import java.util.List;
+import org.accordia.agreement.Borders.Box;
+import org.accordia.io.Geometry;
+import org.accordia.io.LabelVolume;
+
+/**
+ * In-memory consensus outputs of one case on the source grid, ready for a volume writer:
+ * the STAPLE probability map of a structure and consensus label masks. Each is one pass over the
+ * readers' volumes (binary ones only over the union box of the readers' masks; everything outside
+ * it has pattern 0 and gets W(0)).
+ */
+public final class ConsensusOutputs {
+    private ConsensusOutputs() {
+    }
+
+    /**
+     * W per voxel (float) from the voxel's decision pattern in the STAPLE result of ALL readers.
+     *
+     * @param masks the readers' volumes, in the result's bit order, one grid
+     * @param structureLabels label values making up the structure
+     * @param staple STAPLE of all readers on this structure
+     */
+    public static float[] probabilityMap(List<LabelVolume> masks, int[] structureLabels, StapleResult staple) {
+        Patterns.checkSameGrid(masks);
+        if (staple.readers() != masks.size()) {
+            throw new IllegalArgumentException("one mask per reader of the STAPLE result expected");
+        }
+        boolean[] lut = Patterns.lut(structureLabels);
+        Geometry g = masks.get(0).geometry();
+        float[] out = new float[masks.get(0).voxelCount()];
+        Arrays.fill(out, (float) staple.weightOfPattern(0));
+        Box box = Patterns.unionBox(masks, lut);
+        if (box.isEmpty()) {
+            return out;
+        }
+        long[] pat = Patterns.patternsInBox(masks, lut, box);
+        float[] dense = masks.size() <= 16 ? denseWeights(staple, masks.size()) : null;
+        java.util.Map<Long, Float> memo = new java.util.HashMap<>();
+        for (int i = 0; i < pat.length; i++) {
+            float w = dense != null ? dense[(int) pat[i]]
+                : memo.computeIfAbsent(pat[i], p -> (float) staple.weightOfPattern(p));
+            out[box.gridIndex(i, g.nx(), g.ny())] = w;
+        }
+        return out;
+    }
+
+    private static float[] denseWeights(StapleResult s, int readers) {
+        float[] d = new float[1 << readers];
+        for (int p = 0; p < d.length; p++) {
+            d[p] = (float) s.weightOfPattern(p);
+        }
+        return d;
+    }
+
+    /**
+     * The thresholded consensus (W ≥ 0.5) of the readers in {@code keep} as a label volume:
+     * {@code outputLabel} inside, 0 outside.
+     */
+    public static LabelVolume binaryConsensus(List<LabelVolume> masks, int[] structureLabels, StapleResult staple,
+            long keep, int outputLabel) {
+        if (outputLabel < 1) {
+            throw new IllegalArgumentException("output label must be positive");
+        }
+        SignedSurface.BoxMask bm = SignedSurface.consensusMask(masks, structureLabels, staple, keep);
+        Geometry g = masks.get(0).geometry();
+        int[] out = new int[masks.get(0).voxelCount()];
+        for (int i = 0; i < bm.mask().length; i++) {
+            if (bm.mask()[i]) {
+                out[bm.box().gridIndex(i, g.nx(), g.ny())] = outputLabel;
+            }
+        }
+        return LabelVolume.ofInts(g, out);
+    }
+
+    /**
+     * The multi-label consensus as a label volume: per voxel the value {@code labelPerTuple}
+     * gives its tuple (e.g. {@link MultiLabelStapleResult#consensusLabel} for every tuple, or
+     * {@link MajorityVote#labels}). Stored as bytes when every value fits in 0..255, else ints
+     * (a writer may store those as uint16 when at most 65535).
+     *
+     * @param masks the readers' volumes the histogram was built from
+     */
+    public static LabelVolume labelConsensus(List<LabelVolume> masks, LabelTupleHistogram h, int[] labelPerTuple) {
+        Patterns.checkSameGrid(masks);
+        if (labelPerTuple.length != h.size() || masks.size() != h.readers()) {
+            throw new IllegalArgumentException("one value per tuple and one mask per reader expected");
+        }
+        int[] lab = h.labels();
+        int[] index = new int[Math.max(256, lab[lab.length - 1] + 1)];
+        for (int s = 0; s < lab.length; s++) {
+            index[lab[s]] = s;
+        }
+        int b = h.bitsPerReader();
+        int n = masks.get(0).voxelCount();
+        int[] out = new int[n];
+        long[] key = new long[4096];
+        long lastKey = -1;
+        int lastValue = 0;
+        for (int start = 0; start < n; start += key.length) {
+            int len = Math.min(key.length, n - start);
+            Arrays.fill(key, 0, len, 0L);
+            for (int j = 0; j < masks.size(); j++) {
+                LabelVolume v = masks.get(j);
+                int shift = b * j;
+                if (v.isCompact()) {
+                    byte[] src = v.bytes();
+                    for (int i = 0; i < len; i++) {
+                        key[i] |= (long) index[src[start + i] & 0xFF] << shift;
+                    }
+                } else {
+                    int[] src = v.ints();
+                    for (int i = 0; i < len; i++) {
+                        int val = src[start + i];
+                        key[i] |= (long) (val < index.length ? index[val] : 0) << shift;
+                    }
+                }
+            }
+            for (int i = 0; i < len; i++) {
+                if (key[i] != lastKey) {
+                    int t = h.find(key[i]);
+                    if (t < 0) {
+                        throw new IllegalArgumentException("volumes do not match the histogram");
+                    }
+                    lastKey = key[i];
+                    lastValue = labelPerTuple[t];
+                }
+                out[start + i] = lastValue;
+            }
+        }
+        return LabelVolume.ofInts(masks.get(0).geometry(), out);
+    }
+
+    /** The multi-label STAPLE consensus label volume (ties → the result's undecided value). */
+    public static LabelVolume labelConsensus(List<LabelVolume> masks, MultiLabelStapleResult staple) {
+        int[] v = new int[staple.histogram().size()];
+        for (int i = 0; i < v.length; i++) {
+            v[i] = staple.consensusLabel(i);
+        }
+        return labelConsensus(masks, staple.histogram(), v);
+    }
+}
