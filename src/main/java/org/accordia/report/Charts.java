@@ -206,6 +206,7 @@ public final class Charts {
         JFreeChart chart = chart(title, plot, false);
         NumberAxis legendAxis = new NumberAxis("Mean Dice (unitless)");
         legendAxis.setRange(lower, 1.0);
+        legendAxis.setTickUnit(new org.jfree.chart.axis.NumberTickUnit(1.0 - lower <= 0.3 ? 0.05 : 0.1));
         styleValueAxis(legendAxis);
         PaintScaleLegend legend = new PaintScaleLegend(scale, legendAxis);
         legend.setPosition(RectangleEdge.RIGHT);

@@ -177,4 +177,33 @@ class HtmlReportTest {
         }
         return n;
     }
+
+    @Test
+    void randomHostileTextsRoundTripAsText() {
+        java.util.Random rnd = new java.util.Random(11);
+        String alphabet = "<>&\"'=/ab \u00e9;#x";
+        for (int i = 0; i < 300; i++) {
+            StringBuilder sb = new StringBuilder();
+            int len = 1 + rnd.nextInt(30);
+            for (int k = 0; k < len; k++) {
+                sb.append(alphabet.charAt(rnd.nextInt(alphabet.length())));
+            }
+            String text = sb.toString();
+            Document doc = Jsoup.parse(new HtmlReport("t").preformatted(text).figure(PNG_1, text, text).toHtml());
+            assertEquals(text, doc.selectFirst("pre").wholeText());
+            assertEquals(text, doc.selectFirst("img").attr("alt"));
+            assertEquals(1, doc.select("body *").select("img").size());
+            assertTrue(doc.select("script").isEmpty());
+        }
+    }
+
+    static final byte[] PNG_1;
+
+    static {
+        try {
+            PNG_1 = png(2, 2);
+        } catch (Exception e) {
+            throw new IllegalStateException(e);
+        }
+    }
 }

@@ -166,4 +166,25 @@ class OutputFolderTest {
         }
         assertEquals(inputs.size(), outputs.size(), outputs.toString());
     }
+
+    @Test
+    void randomNamesAreAlwaysSafeAndDistinct() {
+        java.util.Random rnd = new java.util.Random(7);
+        String alphabet = "aA0._-/\\: <>\"'|?*\u00e9\u4e2d\u0000.";
+        Set<String> inputs = new HashSet<>();
+        Set<String> outputs = new HashSet<>();
+        for (int i = 0; i < 20_000; i++) {
+            StringBuilder sb = new StringBuilder();
+            int len = rnd.nextInt(12);
+            for (int k = 0; k < len; k++) {
+                sb.append(alphabet.charAt(rnd.nextInt(alphabet.length())));
+            }
+            String in = sb.toString();
+            String out = OutputFolder.safeFileName(in);
+            assertTrue(out.matches("[A-Za-z0-9_-][A-Za-z0-9._-]*"), in + " -> " + out);
+            if (inputs.add(in)) {
+                assertTrue(outputs.add(out), "collision for " + in + " -> " + out);
+            }
+        }
+    }
 }
