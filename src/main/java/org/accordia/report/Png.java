@@ -8,18 +8,16 @@ import java.io.IOException;
 import java.io.UncheckedIOException;
 import javax.imageio.ImageIO;
 
-/** PNG encoding and the headless setting shared by {@link Charts} and {@link Overlays}. */
+/**
+ * PNG encoding shared by {@link Charts} and {@link Overlays}. Everything is drawn into an off-screen
+ * {@code BufferedImage}; no display is needed or opened. The command line runs with
+ * {@code java.awt.headless=true} (set in {@code Main.main}, and by the test configuration); a
+ * library user embedding these classes decides for their own process.
+ */
 final class Png {
     /** Smallest and largest picture side accepted, in pixels. */
     static final int MIN_SIDE = 64;
     static final int MAX_SIDE = 8192;
-
-    static {
-        // Charts and pictures are drawn off-screen; never needs (or opens) a display.
-        if (System.getProperty("java.awt.headless") == null) {
-            System.setProperty("java.awt.headless", "true");
-        }
-    }
 
     private Png() {
     }
