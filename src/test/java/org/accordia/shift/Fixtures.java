@@ -24,7 +24,8 @@ final class Fixtures {
             throw new IOException("missing fixture " + name);
         }
         try (Reader reader = new InputStreamReader(in, StandardCharsets.UTF_8)) {
-            return new ArrayList<>(CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build()
+            return new ArrayList<>(CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true)
+                    .setAllowMissingColumnNames(true).build()
                     .parse(reader).getRecords());
         }
     }
@@ -41,6 +42,11 @@ final class Fixtures {
             }
         }
         return m;
+    }
+
+    /** Row names of a matrix written by R's write.csv(as.matrix(d)). */
+    static List<String> matrixNames(String name) throws IOException {
+        return csv(name).stream().map(r -> r.get(0)).toList();
     }
 
     /** component → value from the *_lme4.csv files. */
