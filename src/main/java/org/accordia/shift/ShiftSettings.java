@@ -23,6 +23,8 @@ package org.accordia.shift;
  * @param bootstrapResamples          case-bootstrap resamples for centre and reader effects (2,000)
  * @param varianceResamples           parametric-bootstrap resamples for variance-component
  *                                    intervals (default 200)
+ * @param centreTestResamples         parametric-bootstrap resamples of the likelihood-ratio test of
+ *                                    σ²_centre = 0 (default 199; 0 = use the ½χ²₀ + ½χ²₁ reference)
  * @param seed                        seed of every random generator of the analysis
  */
 public record ShiftSettings(
@@ -38,6 +40,7 @@ public record ShiftSettings(
         long exactLimit,
         int bootstrapResamples,
         int varianceResamples,
+        int centreTestResamples,
         long seed) {
 
     public static final double DEFAULT_ALPHA = 0.05;
@@ -52,6 +55,7 @@ public record ShiftSettings(
     public static final long DEFAULT_EXACT_LIMIT = 100_000L;
     public static final int DEFAULT_BOOTSTRAP_RESAMPLES = 2_000;
     public static final int DEFAULT_VARIANCE_RESAMPLES = 200;
+    public static final int DEFAULT_CENTRE_TEST_RESAMPLES = 199;
     public static final long DEFAULT_SEED = 20_260_101L;
 
     public ShiftSettings {
@@ -72,7 +76,8 @@ public record ShiftSettings(
         if (minimumVolumeShiftPercent >= 100 || recalibrationVolumePercent >= 100) {
             throw new IllegalArgumentException("volume percentages must be below 100");
         }
-        if (permutations < 1 || exactLimit < 1 || bootstrapResamples < 1 || varianceResamples < 0) {
+        if (permutations < 1 || exactLimit < 1 || bootstrapResamples < 1 || varianceResamples < 0
+                || centreTestResamples < 0) {
             throw new IllegalArgumentException("resampling sizes must be positive");
         }
     }
@@ -82,21 +87,24 @@ public record ShiftSettings(
         return new ShiftSettings(DEFAULT_ALPHA, DEFAULT_MINIMUM_SHIFT_MM, DEFAULT_MINIMUM_VOLUME_SHIFT_PERCENT,
                 DEFAULT_ADJUDICATION_DICE, DEFAULT_ADJUDICATION_HD95_MM, DEFAULT_ADJUDICATION_SHARE,
                 DEFAULT_RECALIBRATION_TOLERANCE_MM, DEFAULT_RECALIBRATION_VOLUME_PERCENT, DEFAULT_PERMUTATIONS,
-                DEFAULT_EXACT_LIMIT, DEFAULT_BOOTSTRAP_RESAMPLES, DEFAULT_VARIANCE_RESAMPLES, DEFAULT_SEED);
+                DEFAULT_EXACT_LIMIT, DEFAULT_BOOTSTRAP_RESAMPLES, DEFAULT_VARIANCE_RESAMPLES,
+                DEFAULT_CENTRE_TEST_RESAMPLES, DEFAULT_SEED);
     }
 
     /** A copy with another seed. */
     public ShiftSettings withSeed(long newSeed) {
         return new ShiftSettings(alpha, minimumShiftMm, minimumVolumeShiftPercent, adjudicationDice,
                 adjudicationHd95Mm, adjudicationShare, recalibrationToleranceMm, recalibrationVolumePercent,
-                permutations, exactLimit, bootstrapResamples, varianceResamples, newSeed);
+                permutations, exactLimit, bootstrapResamples, varianceResamples, centreTestResamples, newSeed);
     }
 
     /** A copy with other resampling sizes (tests and quick runs). */
-    public ShiftSettings withResampling(int newPermutations, int newBootstrapResamples, int newVarianceResamples) {
+    public ShiftSettings withResampling(int newPermutations, int newBootstrapResamples, int newVarianceResamples,
+            int newCentreTestResamples) {
         return new ShiftSettings(alpha, minimumShiftMm, minimumVolumeShiftPercent, adjudicationDice,
                 adjudicationHd95Mm, adjudicationShare, recalibrationToleranceMm, recalibrationVolumePercent,
-                newPermutations, exactLimit, newBootstrapResamples, newVarianceResamples, seed);
+                newPermutations, exactLimit, newBootstrapResamples, newVarianceResamples, newCentreTestResamples,
+                seed);
     }
 
     private static void requireNonNegative(String name, double value) {
