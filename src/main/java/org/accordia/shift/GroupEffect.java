@@ -50,6 +50,21 @@ public record GroupEffect(
         return volumeRatioLo > 1 || volumeRatioHi < 1;
     }
 
+    /**
+     * Whether the effect is detectably non-zero but of uncertain size: the signed-surface interval
+     * excludes 0 and reaches past ±minimum without lying entirely beyond it, or the same for the
+     * volume ratio around 1 and 1 ± minimum %. An interval entirely between 0 and the minimum
+     * (a real but negligible shift) is not uncertain.
+     */
+    public boolean crossesMinimum(double minimumMm, double minimumPercent) {
+        double m = minimumPercent / 100;
+        boolean surface = surfaceExcludesZero() && !surfaceBeyond(minimumMm)
+                && (signedSurfaceHiMm > minimumMm || signedSurfaceLoMm < -minimumMm);
+        boolean volume = volumeExcludesOne() && !volumeBeyond(minimumPercent)
+                && (volumeRatioHi > 1 + m || volumeRatioLo < 1 - m);
+        return surface || volume;
+    }
+
     /** Whether a point estimate exceeds a minimum effect. */
     public boolean pointBeyond(double minimumMm, double minimumPercent) {
         return Math.abs(signedSurfaceMm) > minimumMm || Math.abs(volumeRatio - 1) * 100 > minimumPercent;

@@ -192,7 +192,9 @@ public final class RemlFit {
             double[] upper = new double[factors];
             Arrays.fill(upper, THETA_MAX);
             for (double[] start : starts) {
-                BOBYQAOptimizer bobyqa = new BOBYQAOptimizer(2 * factors + 1, 0.2, 1e-10);
+                // refits from a given start (bootstrap) stop earlier: 1e-7 in θ is far below resampling noise
+                BOBYQAOptimizer bobyqa = new BOBYQAOptimizer(2 * factors + 1, startTheta == null ? 0.2 : 0.1,
+                        startTheta == null ? 1e-10 : 1e-7);
                 PointValuePair opt = bobyqa.optimize(new MaxEval(50_000), GoalType.MINIMIZE,
                         new InitialGuess(start), new SimpleBounds(lower, upper),
                         new ObjectiveFunction(t -> {

@@ -22,8 +22,9 @@ import java.util.Map;
  * <li>{@code centre-shift} → re-annotate: at least one centre is flagged.</li>
  * <li>{@code significant-but-small} → review: the test is significant but no centre is flagged.</li>
  * <li>{@code uncertain-centre-effect} → review: a centre that is not flagged has an interval that
- * excludes "no shift" (0 mm or ratio 1) — either it crosses the minimum (size uncertain) or it lies
- * beyond the minimum while the test is not significant (evidence disagrees).</li>
+ * excludes "no shift" (0 mm or ratio 1) and either crosses the minimum (size uncertain) or lies
+ * beyond the minimum while the test is not significant (evidence disagrees). An interval entirely
+ * between "no shift" and the minimum (a detectable but negligible shift) does not fire.</li>
  * <li>{@code design-cannot-reach-alpha} → review: the design's smallest attainable p-value is
  * above α and some centre's point estimate exceeds the minimum.</li>
  * <li>{@code many-cases-to-adjudicate} → review: more than {@code adjudicationShare} of the cases
@@ -78,7 +79,7 @@ public final class VerdictRules {
         for (GroupEffect e : centres) {
             boolean surface = e.surfaceBeyond(s.minimumShiftMm());
             boolean volume = e.volumeBeyond(s.minimumVolumeShiftPercent());
-            boolean excludes = e.surfaceExcludesZero() || e.volumeExcludesOne();
+            boolean uncertain = e.crossesMinimum(s.minimumShiftMm(), s.minimumVolumeShiftPercent());
             String words = "Centre " + e.group() + " " + e.describe("the other centres");
             if (significant && (surface || volume)) {
                 flagged.add(e.group());
@@ -92,11 +93,11 @@ public final class VerdictRules {
                 uncertainReasons.add(String.format(Locale.ROOT,
                         "%s; the interval lies beyond the minimum shift (%s) but %s, so the evidence disagrees.",
                         words, minimumWords(s), testWords));
-            } else if (excludes) {
+            } else if (uncertain) {
                 flags.put(e.group(), FLAG_UNCERTAIN);
                 uncertainReasons.add(String.format(Locale.ROOT,
-                        "%s; the interval excludes no shift but reaches below the minimum shift (%s), so the "
-                                + "size of the shift is uncertain.", words, minimumWords(s)));
+                        "%s; the interval excludes no shift and reaches past the minimum shift (%s) without "
+                                + "lying beyond it, so the size of the shift is uncertain.", words, minimumWords(s)));
             } else {
                 flags.put(e.group(), FLAG_NONE);
             }
@@ -151,7 +152,7 @@ public final class VerdictRules {
         if (rule == null) {
             rule = NO_SHIFT;
             reasons.add(0, String.format(Locale.ROOT,
-                    "No centre shift: %s, no centre's interval excludes no shift, %d of %d cases need "
+                    "No centre shift: %s, no centre's interval reaches the minimum shift, %d of %d cases need "
                             + "adjudication and no reader needs recalibration.",
                     testWords, casesToAdjudicate, totalCases));
         }

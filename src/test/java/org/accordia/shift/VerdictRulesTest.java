@@ -34,6 +34,7 @@ class VerdictRulesTest {
         "'many cases to adjudicate',          0.30,  0.0036, 0.1,  -0.3, 0.5,  5, false, review,      many-cases-to-adjudicate",
         "'at the share limit',                0.30,  0.0036, 0.1,  -0.3, 0.5,  4, false, pool,        no-shift",
         "'reader to recalibrate',             0.30,  0.0036, 0.1,  -0.3, 0.5,  0, true,  review,      readers-to-recalibrate",
+        "'negligible but detectable',         0.30,  0.0036, 0.3,  0.2,  0.4,  0, false, pool,        no-shift",
         "'nothing',                           0.30,  0.0036, 0.1,  -0.3, 0.5,  0, false, pool,        no-shift",
     })
     void ruleTable(String description, double p, double minP, double mm, double lo, double hi, int adjudicate,
