@@ -247,11 +247,11 @@ class ReaderPermutationTest {
     @Test
     void nullRejectionRateIsNominalAndPowerIsHigh() {
         // 3 centres x 3 readers, 4 cases: 280 partitions, P(p <= 0.05) = 14/280 = 0.05 exactly under
-        // exchangeability. 200 seeded null data sets: rejection rate within alpha +- 2 SE.
+        // exchangeability. 500 seeded null data sets: rejection rate within alpha +- 2 SE.
         List<String> readers = new ArrayList<>();
         Map<String, String> centreOf = design(3, 3, readers);
         Random random = new Random(20261202);
-        int runs = 200;
+        int runs = 500;
         int rejectNull = 0;
         int rejectShift = 0;
         for (int i = 0; i < runs; i++) {
