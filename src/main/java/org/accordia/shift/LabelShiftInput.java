@@ -41,5 +41,12 @@ public record LabelShiftInput(
         readerMeasures = List.copyOf(readerMeasures);
         varianceMeasures = List.copyOf(varianceMeasures);
         caseSummaries = List.copyOf(caseSummaries);
+        if (volumesMl != null) {
+            double[][] copy = new double[volumesMl.length][];
+            for (int i = 0; i < copy.length; i++) {
+                copy[i] = volumesMl[i].clone();
+            }
+            volumesMl = copy;
+        }
     }
 }
