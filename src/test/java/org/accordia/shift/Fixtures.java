@@ -25,7 +25,7 @@ final class Fixtures {
         }
         try (Reader reader = new InputStreamReader(in, StandardCharsets.UTF_8)) {
             return new ArrayList<>(CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true)
-                    .setAllowMissingColumnNames(true).build()
+                    .setAllowMissingColumnNames(true).get()
                     .parse(reader).getRecords());
         }
     }

@@ -61,6 +61,25 @@ class RemlFitTest {
         assertEquals(0.30241, fit.residualVariance(), 1e-4);
     }
 
+    @org.junit.jupiter.params.ParameterizedTest(name = "{0}")
+    @org.junit.jupiter.params.provider.ValueSource(strings = {"dyestuff", "dyestuff2"})
+    void oneGroupingFactorMatchesLme4(String data) throws IOException {
+        // lme4: lmer(Yield ~ 1 + (1|Batch), Dyestuff / Dyestuff2), REML. Dyestuff2's batch variance is
+        // exactly 0 in lme4 (a boundary, "singular" fit); ours must be an exact 0 too.
+        List<CSVRecord> rows = Fixtures.csv(data + ".csv");
+        double[] y = rows.stream().mapToDouble(r -> Double.parseDouble(r.get("Yield"))).toArray();
+        RemlFit model = new RemlFit(List.of("Batch"), List.of(Fixtures.levels(rows, "Batch")), null);
+        RemlResult fit = model.fit(y);
+        Map<String, Double> ref = Fixtures.components(data + "_lme4.csv");
+        if (ref.get("Batch") == 0) {
+            assertEquals(0.0, fit.variance("Batch"), 0.0, "exact zero");
+        } else {
+            assertRelative(ref.get("Batch"), fit.variance("Batch"), RELATIVE, "batch");
+        }
+        assertRelative(ref.get("Residual"), fit.residualVariance(), RELATIVE, "residual");
+        assertEquals(ref.get("(REMLcrit)"), fit.remlCriterion(), 1e-6, "REML criterion");
+    }
+
     @Test
     void unbalancedCrossedCaseByReaderInCentreMatchesLme4() throws IOException {
         // Invented design (lme4_reml.R): 14 cases x 9 readers in 3 centres, ~15% cells removed;
