@@ -21,6 +21,9 @@ import org.apache.commons.math3.distribution.FDistribution;
  *
  * <p>Unitless. Degenerate input: fewer than 2 targets or judges, a ragged matrix or a non-finite
  * value is an error; when a mean square in a denominator is 0 the coefficient is NaN.
+ *
+ * <p>Example (Shrout &amp; Fleiss 1979, 6 targets × 4 judges): ICC(1,1) 0.1657, ICC(2,1) 0.2898,
+ * ICC(3,1) 0.7148, ICC(1,4) 0.4428, ICC(2,4) 0.6201, ICC(3,4) 0.9093.
  */
 public final class Icc {
     private Icc() {
