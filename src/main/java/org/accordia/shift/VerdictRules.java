@@ -16,6 +16,9 @@ import java.util.Map;
  * hi &lt; −minimumShiftMm, or volume-ratio interval lo &gt; 1 + m or hi &lt; 1 − m with
  * m = minimumVolumeShiftPercent/100.
  *
+ * <p>Centre reasons are listed with the largest absolute signed-surface effect first (ties by
+ * name); flagged centres and flags are sorted by name.
+ *
  * <p>Rules, checked in this order (the verdict is the most severe one that fires; the reported
  * rule is the first that fires; every fired rule adds its reason):
  * <ol>
@@ -76,7 +79,12 @@ public final class VerdictRules {
         List<String> shiftReasons = new ArrayList<>();
         List<String> uncertainReasons = new ArrayList<>();
         List<String> pointLarge = new ArrayList<>();
-        for (GroupEffect e : centres) {
+        // largest signed-surface effect first, so the first reason names the likely source
+        List<GroupEffect> ordered = new ArrayList<>(centres);
+        ordered.sort(java.util.Comparator.comparingDouble((GroupEffect e) -> Double.isNaN(e.signedSurfaceMm())
+                ? Double.NEGATIVE_INFINITY : Math.abs(e.signedSurfaceMm())).reversed()
+                .thenComparing(GroupEffect::group));
+        for (GroupEffect e : ordered) {
             boolean surface = e.surfaceBeyond(s.minimumShiftMm());
             boolean volume = e.volumeBeyond(s.minimumVolumeShiftPercent());
             boolean uncertain = e.crossesMinimum(s.minimumShiftMm(), s.minimumVolumeShiftPercent());
@@ -156,7 +164,10 @@ public final class VerdictRules {
                             + "adjudication and no reader needs recalibration.",
                     testWords, casesToAdjudicate, totalCases));
         }
-        return new Decision(verdict, rule, reasons, flagged, flags);
+        flagged.sort(null);
+        Map<String, String> sortedFlags = new LinkedHashMap<>();
+        centres.stream().map(GroupEffect::group).sorted().forEach(g -> sortedFlags.put(g, flags.get(g)));
+        return new Decision(verdict, rule, reasons, flagged, sortedFlags);
     }
 
     private static Verdict max(Verdict a, Verdict b) {

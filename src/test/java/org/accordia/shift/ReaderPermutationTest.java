@@ -194,6 +194,49 @@ class ReaderPermutationTest {
         assertTrue(r.canReachAlpha());
     }
 
+    @ParameterizedTest(name = "random design {0}")
+    @org.junit.jupiter.params.provider.ValueSource(ints = {1, 2, 3, 4, 5, 6, 7, 8})
+    void randomDesignsWithMissingReadersAgreeWithBruteForce(int seed) {
+        // 5-7 readers in 2-3 centres of random sizes, 2-4 cases, readers missing at random (at
+        // least 3 per case): exact p and min p against all N! reader permutations.
+        Random random = new Random(1000 + seed);
+        int n = 5 + random.nextInt(3);
+        int centres = 2 + random.nextInt(2);
+        Map<String, String> centreOf = new HashMap<>();
+        List<String> readers = new ArrayList<>();
+        for (int i = 0; i < n; i++) {
+            String id = "r" + i;
+            readers.add(id);
+            centreOf.put(id, "g" + (i < centres ? i : random.nextInt(centres)));
+        }
+        List<CaseDistances> cases = new ArrayList<>();
+        int caseCount = 2 + random.nextInt(3);
+        for (int c = 0; c < caseCount; c++) {
+            List<String> present = new ArrayList<>();
+            for (String r : readers) {
+                if (random.nextDouble() < 0.8 || present.size() + (n - readers.indexOf(r)) <= 3) {
+                    present.add(r);
+                }
+            }
+            double[][] pts = new double[present.size()][2];
+            for (int i = 0; i < pts.length; i++) {
+                double shift = centreOf.get(present.get(i)).equals("g0") ? 1.0 : 0.0;
+                pts[i][0] = shift + random.nextGaussian();
+                pts[i][1] = random.nextGaussian();
+            }
+            cases.add(new CaseDistances("k" + c, present, DistancePartitionTest.euclid(pts)));
+        }
+        PermutationResult r = PermutationTest.test(cases, centreOf, 0.05, 999, 100_000, 1);
+        // a reader absent from every case carries no data and is not permuted (docs/shift.md)
+        List<String> used = readers.stream()
+                .filter(id -> cases.stream().anyMatch(c -> c.readers().contains(id))).toList();
+        double[] naive = naivePermutationP(cases, centreOf, used);
+        assertTrue(r.exact());
+        assertEquals(naiveF(cases, centreOf), r.pseudoF(), 1e-9 * Math.max(1, Math.abs(r.pseudoF())));
+        assertEquals(naive[0], r.pValue(), 1e-12);
+        assertEquals(naive[1], r.minP(), 1e-12);
+    }
+
     @Test
     void twoCentresOfTwoReadersCannotReachAlpha() {
         // 4 readers in two pairs: the partitions {ab|cd}, {ac|bd}, {ad|bc}; min p = 1/3.
