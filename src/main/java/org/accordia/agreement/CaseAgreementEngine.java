@@ -503,10 +503,24 @@ public final class CaseAgreementEngine {
             : Borders.cropInts(m.ints(), st.labels(), g.nx(), g.ny(), g.nz(), box);
     }
 
-    private static boolean[] border(LabelVolume m, Structure st, Box box, Geometry g) {
-        return m.isCompact()
-            ? Borders.borderMaskInBox(m.bytes(), st.byteTable(), g.nx(), g.ny(), g.nz(), box)
-            : Borders.borderMaskInBox(m.ints(), st.labels(), g.nx(), g.ny(), g.nz(), box);
+    /** Border voxels of the structure inside the box, as box linear indices (judged on the full grid). */
+    private static int[] borderIndices(LabelVolume m, Structure st, Box box, Geometry g) {
+        if (m.isCompact()) {
+            return Borders.borderIndicesInBox(m.bytes(), st.byteTable(), g.nx(), g.ny(), g.nz(), box);
+        }
+        boolean[] b = Borders.borderMaskInBox(m.ints(), st.labels(), g.nx(), g.ny(), g.nz(), box);
+        int n = 0;
+        for (boolean v : b) {
+            n += v ? 1 : 0;
+        }
+        int[] idx = new int[n];
+        int k = 0;
+        for (int i = 0; i < b.length; i++) {
+            if (b[i]) {
+                idx[k++] = i;
+            }
+        }
+        return idx;
     }
 
     /** Surface metrics of every pair a < b with both masks non-empty ({@code null} elsewhere). */
@@ -520,7 +534,6 @@ public final class CaseAgreementEngine {
         int ny = g.ny();
         int nz = g.nz();
         Box box = unionBox.grow(1, nx, ny, nz);
-        boolean[][] borders = new boolean[r][];
         int[][] borderIdx = new int[r][];
         List<Runnable> phase1 = new ArrayList<>();
         for (int j = 0; j < r; j++) {
@@ -528,22 +541,7 @@ public final class CaseAgreementEngine {
                 continue;
             }
             int jj = j;
-            phase1.add(() -> {
-                boolean[] b = border(masks.get(jj), st, box, g);
-                int n = 0;
-                for (boolean v : b) {
-                    n += v ? 1 : 0;
-                }
-                int[] idx = new int[n];
-                int k = 0;
-                for (int i = 0; i < b.length; i++) {
-                    if (b[i]) {
-                        idx[k++] = i;
-                    }
-                }
-                borders[jj] = b;
-                borderIdx[jj] = idx;
-            });
+            phase1.add(() -> borderIdx[jj] = borderIndices(masks.get(jj), st, box, g));
         }
         runAll(phase1, executor);
         // sampled[a][b]: squared distances from a's border voxels to b's border (from b's transform)
@@ -553,12 +551,16 @@ public final class CaseAgreementEngine {
         double sz = g.spacing(2);
         List<Runnable> phase2 = new ArrayList<>();
         for (int b = 0; b < r; b++) {
-            if (borders[b] == null) {
+            if (borderIdx[b] == null) {
                 continue;
             }
             int bb = b;
             phase2.add(() -> {
-                double[] d2 = DistanceTransform.squaredDistanceMm2(borders[bb], box.nx(), box.ny(), box.nz(), sx, sy, sz);
+                boolean[] sites = new boolean[box.size()];
+                for (int i : borderIdx[bb]) {
+                    sites[i] = true;
+                }
+                double[] d2 = DistanceTransform.squaredDistanceMm2(sites, box.nx(), box.ny(), box.nz(), sx, sy, sz);
                 for (int a = 0; a < r; a++) {
                     if (a == bb || borderIdx[a] == null) {
                         continue;

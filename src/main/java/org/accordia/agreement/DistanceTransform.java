@@ -30,8 +30,8 @@ import java.util.concurrent.Executor;
  * all of them are inside).
  */
 public final class DistanceTransform {
-    /** Lines per task when an executor is used (keeps scheduling overhead small). */
-    private static final int MIN_LINES_PER_TASK = 64;
+    /** Work units (lines in the x pass, blocks of lines in the others) per task when an executor is used. */
+    private static final int MIN_LINES_PER_TASK = 8;
 
     private DistanceTransform() {
     }

@@ -123,17 +123,31 @@ public final class AgreementBenchmark {
             CaseAgreementEngine engine = new CaseAgreementEngine(2.0, 2.0, pool);
             long[] engineNs = new long[rounds];
             long[] inflateNs = new long[rounds];
+            long[] engineCpuNs = new long[rounds];
+            long[] inflateCpuNs = new long[rounds];
+            java.lang.management.ThreadMXBean mx = java.lang.management.ManagementFactory.getThreadMXBean();
             List<CaseAgreement> last = null;
             for (int i = 0; i < rounds; i++) {
+                long c0 = mx.getCurrentThreadCpuTime();
                 inflateNs[i] = inflateNanos(packed, masks.get(0).voxelCount());
+                long c1 = mx.getCurrentThreadCpuTime();
                 long t0 = System.nanoTime();
                 last = engine.evaluate("bench", ids, masks, structures);
                 engineNs[i] = System.nanoTime() - t0;
+                engineCpuNs[i] = mx.getCurrentThreadCpuTime() - c1;
+                inflateCpuNs[i] = c1 - c0;
             }
             Arrays.sort(engineNs);
             Arrays.sort(inflateNs);
+            Arrays.sort(engineCpuNs);
+            Arrays.sort(inflateCpuNs);
             double e = engineNs[rounds / 2] / 1e6;
             double f = inflateNs[rounds / 2] / 1e6;
+            if (threads == 1) {
+                System.out.printf(Locale.ROOT, "single thread CPU time: median engine=%.1f ms, gunzip 9 masks=%.1f ms,"
+                        + " ratio=%.2f%n", engineCpuNs[rounds / 2] / 1e6, inflateCpuNs[rounds / 2] / 1e6,
+                    (double) engineCpuNs[rounds / 2] / inflateCpuNs[rounds / 2]);
+            }
             CaseAgreement w = last.get(0);
             System.out.printf(Locale.ROOT, "threads=%d rounds=%d median engine=%.1f ms (min %.1f) | gunzip 9 masks=%.1f ms"
                     + " | ratio engine/gunzip=%.2f%n", threads, rounds, e, engineNs[0] / 1e6, f, e / f);

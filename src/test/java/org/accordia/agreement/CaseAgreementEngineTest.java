@@ -258,11 +258,12 @@ class CaseAgreementEngineTest {
 
     @Test
     void boxesOffsetAlongAnAxis() {
-        // Two identical 4x4x4 boxes in a 20x12x12 grid, B shifted by k = 3 voxels along z, spacing 2.5 mm along z.
-        // Every border voxel of A has a border voxel of B at most k voxels away along z (the B voxel
-        // straight "above" or the nearest B voxel on the same column), and A's bottom face is exactly k
-        // voxels from B's bottom face with nothing of B closer (B starts k slices higher), so the directed
-        // maximum is k·s in both directions: HD = 3 × 2.5 = 7.5 mm.
+        // Hand-computed. Two 4x4x4-voxel boxes in a 20x12x12 grid, B = A shifted by k = 3 voxels along z,
+        // spacing s = 2.5 mm along z. A occupies slices 2..5, B slices 5..8. A's bottom face (slice 2)
+        // is k slices from B's bottom face (slice 5, same x and y), and no voxel of B is closer to it
+        // (every voxel of B has z >= 5), so its directed distance is k*s; every other border voxel of A
+        // is at most that far from B's border (same x, y, at most k slices apart). Symmetrically for B's
+        // top face. Hence HD = k*s = 7.5 mm.
         int nx = 20;
         int ny = 12;
         int nz = 12;
