@@ -407,4 +407,52 @@ class CaseAgreementEngineTest {
         assertEquals(PatternHistogram.fromDense(3, dense), ca.histogram());
         assertEquals(Borders.boundingBox(union, nx, ny, nz), ca.unionBox());
     }
+
+    /** Beyond 16 readers (sparse histogram) and with label 0 inside a structure (no block skipping). */
+    @Test
+    void manyReadersAndBackgroundInStructureUseTheGeneralPath() {
+        Random rnd = new Random(17);
+        int nx = 9;
+        int ny = 6;
+        int nz = 4;
+        Geometry g = Geometry.axisAligned(nx, ny, nz, 1, 1, 1);
+        int r = 18;
+        List<byte[]> raw = new ArrayList<>();
+        List<LabelVolume> masks = new ArrayList<>();
+        for (int j = 0; j < r; j++) {
+            byte[] lab = randomLabels(rnd, nx, ny, nz, 2 + j % 2);
+            raw.add(lab);
+            masks.add(LabelVolume.ofBytes(g, lab));
+        }
+        Structure outside = Structure.of("outside", 0, 3);
+        List<CaseAgreement> res = new CaseAgreementEngine(1.0).evaluate("c", ids(r), masks, List.of(WHOLE, outside));
+        for (int s = 0; s < 2; s++) {
+            Structure st = s == 0 ? WHOLE : outside;
+            Map<Long, Long> expected = new java.util.TreeMap<>();
+            for (int i = 0; i < nx * ny * nz; i++) {
+                long p = 0;
+                for (int j = 0; j < r; j++) {
+                    if (st.contains(raw.get(j)[i] & 0xFF)) {
+                        p |= 1L << j;
+                    }
+                }
+                expected.merge(p, 1L, Long::sum);
+            }
+            PatternHistogram h = res.get(s).histogram();
+            assertEquals(expected.size(), h.size());
+            int k = 0;
+            for (Map.Entry<Long, Long> e : expected.entrySet()) {
+                assertEquals(e.getKey(), h.pattern(k));
+                assertEquals(e.getValue(), h.count(k++));
+            }
+            assertEquals(r * (r - 1) / 2, res.get(s).pairs().size());
+            // one pair against the oracle
+            double[] o = oracle(member(raw.get(3), st), member(raw.get(11), st), nx, ny, nz, new double[] {1, 1, 1}, 1.0);
+            PairMetrics pm = res.get(s).pairs().stream()
+                .filter(p -> p.readerA().equals("r3") && p.readerB().equals("r11")).findFirst().orElseThrow();
+            close(o[0], pm.dice(), "dice");
+            close(o[3], pm.hd95Mm(), "hd95");
+            close(o[5], pm.assdMm(), "assd");
+        }
+    }
 }
