@@ -239,19 +239,17 @@ public final class DistanceTransform {
             return;
         }
         z[k + 1] = Double.POSITIVE_INFINITY;
-        int j = 0;
-        double next = z[1];
-        int p = v[0];
-        double fp = f[p];
-        for (int q = 0; q < n; q++) {
-            while (next < q) {
-                j++;
-                next = z[j + 1];
-                p = v[j];
-                fp = f[p];
+        // parabola j is lowest for the q with z[j] < q <= z[j + 1] (z strictly increasing)
+        int q = 0;
+        for (int j = 0; j <= k && q < n; j++) {
+            double right = z[j + 1];
+            int qEnd = right >= n - 1 ? n - 1 : (int) Math.floor(right);
+            int p = v[j];
+            double fp = f[p];
+            for (; q <= qEnd; q++) {
+                double diff = q - p;
+                d[q] = w * diff * diff + fp;
             }
-            double diff = q - p;
-            d[q] = w * diff * diff + fp;
         }
     }
 
