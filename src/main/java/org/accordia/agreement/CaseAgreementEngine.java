@@ -84,7 +84,9 @@ public final class CaseAgreementEngine {
      * Agreement of all reader pairs of one case for each structure, in the order given.
      *
      * @param readers identity of each mask's reader; reader order (and pair order) as given
-     * @param masks one mask per reader, all on the same grid
+     * @param masks one mask per reader, all on the same grid (the study layer checks spacing and
+     *     orientation within its tolerance; here the dimensions must match exactly and the first
+     *     mask's spacing is used for every distance and volume)
      * @param structures structures to measure, at most 31
      */
     public List<CaseAgreement> evaluate(String caseId, List<ReaderId> readers, List<LabelVolume> masks,
@@ -101,9 +103,10 @@ public final class CaseAgreementEngine {
         }
         Geometry g = masks.get(0).geometry();
         for (int j = 1; j < r; j++) {
-            String diff = g.differenceFrom(masks.get(j).geometry(), 1e-6);
-            if (diff != null) {
-                throw new IllegalArgumentException("mask of reader " + readers.get(j).reader() + " is on another grid: " + diff);
+            Geometry gj = masks.get(j).geometry();
+            if (gj.nx() != g.nx() || gj.ny() != g.ny() || gj.nz() != g.nz()) {
+                throw new IllegalArgumentException("mask of reader " + readers.get(j).reader() + " has dimensions "
+                    + gj.dimsText() + ", the first mask " + g.dimsText());
             }
         }
         Pass pass = histogramPass(masks, structures, g);
