@@ -68,9 +68,8 @@ public final class DistanceTransform {
     }
 
     /**
-     * Completes an exact transform in place from values that are already exact along x (for
-     * example, {@code 0} at sites and {@code +∞} elsewhere for a 1-voxel-wide x extent, or the
-     * output of the x pass): runs the y and z envelope passes.
+     * The y and z passes, in place: {@code g} holds, per voxel, a function that is already
+     * minimised along x (the output of the x pass); afterwards it holds the full transform.
      */
     static void envelopePasses(double[] g, int nx, int ny, int nz, double wy, double wz, Executor executor) {
         int blocks = (nx + BLOCK - 1) / BLOCK;
