@@ -203,6 +203,50 @@ public final class Borders {
     }
 
     /**
+     * The border voxels of the structure {@code member[label]} inside {@code box}, as ascending
+     * linear indices WITHIN the box (x fastest); same convention as
+     * {@link #borderMaskInBox(byte[], boolean[], int, int, int, Box)}.
+     */
+    public static int[] borderIndicesInBox(byte[] labels, boolean[] member, int nx, int ny, int nz, Box box) {
+        DistanceTransform.checkBox(labels.length, nx, ny, nz);
+        if (member.length != 256) {
+            throw new IllegalArgumentException("member table must have 256 entries");
+        }
+        checkInside(box, nx, ny, nz);
+        int[] idx = new int[Math.max(16, box.size() / 16)];
+        int n = 0;
+        if (box.isEmpty()) {
+            return new int[0];
+        }
+        boolean three = nz > 1;
+        int plane = nx * ny;
+        int o = 0;
+        for (int z = box.z0(); z < box.z1(); z++) {
+            boolean zEdge = three && (z == 0 || z == nz - 1);
+            for (int y = box.y0(); y < box.y1(); y++) {
+                int row = nx * (y + ny * z);
+                boolean yzEdge = zEdge || y == 0 || y == ny - 1;
+                for (int x = box.x0(); x < box.x1(); x++, o++) {
+                    int i = row + x;
+                    if (!member[labels[i] & 0xFF]) {
+                        continue;
+                    }
+                    if (yzEdge || x == 0 || x == nx - 1
+                        || !member[labels[i - 1] & 0xFF] || !member[labels[i + 1] & 0xFF]
+                        || !member[labels[i - nx] & 0xFF] || !member[labels[i + nx] & 0xFF]
+                        || (three && (!member[labels[i - plane] & 0xFF] || !member[labels[i + plane] & 0xFF]))) {
+                        if (n == idx.length) {
+                            idx = java.util.Arrays.copyOf(idx, idx.length * 2);
+                        }
+                        idx[n++] = o;
+                    }
+                }
+            }
+        }
+        return java.util.Arrays.copyOf(idx, n);
+    }
+
+    /**
      * As {@link #borderMaskInBox(byte[], boolean[], int, int, int, Box)} for int label storage;
      * {@code labels} values in {@code sortedSet} (ascending) belong to the structure.
      */

@@ -30,8 +30,8 @@ import java.util.concurrent.Executor;
  * all of them are inside).
  */
 public final class DistanceTransform {
-    /** Lines per task when an executor is used (keeps scheduling overhead small). */
-    private static final int MIN_LINES_PER_TASK = 64;
+    /** Work units (lines in the x pass, blocks of lines in the others) per task when an executor is used. */
+    private static final int MIN_LINES_PER_TASK = 8;
 
     private DistanceTransform() {
     }
@@ -68,63 +68,90 @@ public final class DistanceTransform {
     }
 
     /**
-     * Completes an exact transform in place from values that are already exact along x (for
-     * example, {@code 0} at sites and {@code +∞} elsewhere for a 1-voxel-wide x extent, or the
-     * output of the x pass): runs the y and z envelope passes.
+     * The y and z passes, in place: {@code g} holds, per voxel, a function that is already
+     * minimised along x (the output of the x pass); afterwards it holds the full transform.
      */
     static void envelopePasses(double[] g, int nx, int ny, int nz, double wy, double wz, Executor executor) {
+        int blocks = (nx + BLOCK - 1) / BLOCK;
         if (ny > 1) {
-            runLines(nx * nz, executor, (from, to) -> {
+            // lines along y: for slice z, x-adjacent lines are handled BLOCK at a time
+            runLines(blocks * nz, executor, (from, to) -> {
                 Scratch s = new Scratch(ny);
-                for (int line = from; line < to; line++) {
-                    int z = line / nx;
-                    int x = line - z * nx;
-                    int base = x + z * nx * ny;
-                    transformStrided(g, base, nx, ny, wy, s);
+                for (int unit = from; unit < to; unit++) {
+                    int z = unit / blocks;
+                    int x0 = (unit - z * blocks) * BLOCK;
+                    transformBlock(g, x0 + z * nx * ny, nx, ny, Math.min(BLOCK, nx - x0), wy, s);
                 }
             });
         }
         if (nz > 1) {
             int plane = nx * ny;
-            runLines(plane, executor, (from, to) -> {
+            runLines(blocks * ny, executor, (from, to) -> {
                 Scratch s = new Scratch(nz);
-                for (int line = from; line < to; line++) {
-                    transformStrided(g, line, plane, nz, wz, s);
+                for (int unit = from; unit < to; unit++) {
+                    int y = unit / blocks;
+                    int x0 = (unit - y * blocks) * BLOCK;
+                    transformBlock(g, x0 + y * nx, plane, nz, Math.min(BLOCK, nx - x0), wz, s);
                 }
             });
         }
     }
 
+    /** Lines transformed together in a strided pass (their elements are adjacent in memory). */
+    private static final int BLOCK = 16;
+
     /** Per-task line buffers. */
     private static final class Scratch {
+        final double[] block;
         final double[] f;
         final double[] d;
         final int[] v;
         final double[] z;
+        final double[] h;
 
         Scratch(int n) {
+            block = new double[BLOCK * n];
             f = new double[n];
             d = new double[n];
             v = new int[n];
             z = new double[n + 1];
+            h = new double[n];
         }
     }
 
-    private static void transformStrided(double[] g, int base, int stride, int n, double w, Scratch s) {
+    /**
+     * Transforms {@code count} lines of length {@code n} starting at {@code base + b} (b &lt; count),
+     * element {@code q} at offset {@code q·stride}: gathered row by row (contiguous reads), each line
+     * transformed, scattered back row by row.
+     */
+    private static void transformBlock(double[] g, int base, int stride, int n, int count, double w, Scratch s) {
+        double[] blk = s.block;
+        for (int q = 0, i = base; q < n; q++, i += stride) {
+            System.arraycopy(g, i, blk, q * count, count);
+        }
         double[] f = s.f;
-        boolean any = false;
-        for (int q = 0, i = base; q < n; q++, i += stride) {
-            double val = g[i];
-            f[q] = val;
-            any |= val != Double.POSITIVE_INFINITY;
-        }
-        if (!any) {
-            return; // all infinite: stays infinite
-        }
-        lowerEnvelope(f, s.d, n, w, s.v, s.z);
         double[] d = s.d;
-        for (int q = 0, i = base; q < n; q++, i += stride) {
-            g[i] = d[q];
+        boolean changed = false;
+        for (int b = 0; b < count; b++) {
+            boolean any = false;
+            for (int q = 0, o = b; q < n; q++, o += count) {
+                double val = blk[o];
+                f[q] = val;
+                any |= val != Double.POSITIVE_INFINITY;
+            }
+            if (!any) {
+                continue; // all infinite: stays infinite
+            }
+            lowerEnvelope(f, d, n, w, s.v, s.z, s.h);
+            for (int q = 0, o = b; q < n; q++, o += count) {
+                blk[o] = d[q];
+            }
+            changed = true;
+        }
+        if (changed) {
+            for (int q = 0, i = base; q < n; q++, i += stride) {
+                System.arraycopy(blk, q * count, g, i, count);
+            }
         }
     }
 
@@ -168,20 +195,29 @@ public final class DistanceTransform {
      * @param z scratch, length ≥ n + 1
      */
     public static void lowerEnvelope(double[] f, double[] d, int n, double w, int[] v, double[] z) {
+        double[] h = new double[n];
+        lowerEnvelope(f, d, n, w, v, z, h);
+    }
+
+    /** As {@link #lowerEnvelope(double[], double[], int, double, int[], double[])} with a scratch {@code h} (length ≥ n). */
+    static void lowerEnvelope(double[] f, double[] d, int n, double w, int[] v, double[] z, double[] h) {
+        double invW = 1.0 / w;
         int k = -1;
+        double hk = 0; // h of the parabola on top of the stack
         for (int q = 0; q < n; q++) {
             double fq = f[q];
             if (fq == Double.POSITIVE_INFINITY) {
                 continue;
             }
-            double hq = fq / w + (double) q * q;
+            double hq = fq * invW + (double) q * q;
             double s = Double.NEGATIVE_INFINITY;
             while (k >= 0) {
-                int p = v[k];
-                double hp = f[p] / w + (double) p * p;
-                s = (hq - hp) / (2.0 * (q - p));
+                s = (hq - hk) / (2.0 * (q - v[k]));
                 if (s <= z[k]) {
                     k--;
+                    if (k >= 0) {
+                        hk = h[k];
+                    }
                 } else {
                     break;
                 }
@@ -192,6 +228,8 @@ public final class DistanceTransform {
             k++;
             v[k] = q;
             z[k] = s;
+            h[k] = hq;
+            hk = hq;
         }
         if (k < 0) {
             for (int q = 0; q < n; q++) {
@@ -200,14 +238,17 @@ public final class DistanceTransform {
             return;
         }
         z[k + 1] = Double.POSITIVE_INFINITY;
-        int j = 0;
-        for (int q = 0; q < n; q++) {
-            while (z[j + 1] < q) {
-                j++;
-            }
+        // parabola j is lowest for the q with z[j] < q <= z[j + 1] (z strictly increasing)
+        int q = 0;
+        for (int j = 0; j <= k && q < n; j++) {
+            double right = z[j + 1];
+            int qEnd = right >= n - 1 ? n - 1 : (int) Math.floor(right);
             int p = v[j];
-            double diff = q - p;
-            d[q] = w * diff * diff + f[p];
+            double fp = f[p];
+            for (; q <= qEnd; q++) {
+                double diff = q - p;
+                d[q] = w * diff * diff + fp;
+            }
         }
     }
 

@@ -69,6 +69,7 @@ class BordersTest {
             boolean[] cropped = Borders.crop(expected, nx, ny, nz, box);
             assertArrayEquals(cropped, Borders.borderMaskInBox(fg, nx, ny, nz, box));
             assertArrayEquals(cropped, Borders.borderMaskInBox(labels, member, nx, ny, nz, box));
+            assertArrayEquals(CaseAgreementEngineTest.indices(cropped), Borders.borderIndicesInBox(labels, member, nx, ny, nz, box));
             assertArrayEquals(cropped, Borders.borderMaskInBox(ints, new int[] {1, 2}, nx, ny, nz, box));
             assertArrayEquals(Borders.crop(fg, nx, ny, nz, box), Borders.crop(labels, member, nx, ny, nz, box));
         }

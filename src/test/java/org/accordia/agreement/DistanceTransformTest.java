@@ -88,7 +88,7 @@ class DistanceTransformTest {
     @Test
     void executorGivesIdenticalResult() {
         Random rnd = new Random(7);
-        int nx = 40;
+        int nx = 70; // blocks of 16 lines with a partial last block
         int ny = 37;
         int nz = 23;
         boolean[] sites = new boolean[nx * ny * nz];
