@@ -218,7 +218,8 @@ final class Payload {
                 long most = available * DEFLATE_MAX_RATIO + 1024;
                 long needed = l.skipDecompressed() + nbytes;
                 if (needed < 0 || needed > most) {
-                    throw new InputException(file, "truncated data: expected " + nbytes + " bytes, but " + available
+                    throw new InputException(file, "truncated data: expected " + nbytes + " bytes"
+                        + (l.skipDecompressed() > 0 ? " starting at byte " + l.skipDecompressed() : "") + ", but " + available
                         + " bytes of " + l.compression().label() + " data can expand to at most " + most + dataFileNote(file, l));
                 }
             }
