@@ -14,7 +14,8 @@ public final class Volumes {
     private static final List<VolumeReader> READERS = List.of(
         new NiftiReader(),
         new NrrdReader(),
-        new MetaImageReader()
+        new MetaImageReader(),
+        new ImageJReader()
     );
 
     private Volumes() {
