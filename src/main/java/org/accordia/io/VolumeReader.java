@@ -19,4 +19,12 @@ public interface VolumeReader {
 
     /** Reads an intensity image as floats (scaling applied). */
     ImageVolume readImage(Path file, ReadLimits limits) throws InputException;
+
+    /**
+     * Reads only the geometry. Formats with a separate header override this to read the header
+     * alone (no payload is decompressed); the default reads the whole image.
+     */
+    default Geometry readGeometry(Path file, ReadLimits limits) throws InputException {
+        return readImage(file, limits).geometry();
+    }
 }

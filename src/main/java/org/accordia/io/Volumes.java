@@ -12,7 +12,7 @@ import java.util.Locale;
 public final class Volumes {
     /** Every supported format, tried in order; the first whose {@code accepts} is true reads. */
     private static final List<VolumeReader> READERS = List.of(
-        // filled by the format readers: NIfTI-1/2, NRRD, MetaImage, TIFF/PNG (ImageJ)
+        new NiftiReader()
     );
 
     private Volumes() {
@@ -43,6 +43,14 @@ public final class Volumes {
 
     public static ImageVolume readImage(Path file, ReadLimits limits) throws InputException {
         return require(file).readImage(file, limits);
+    }
+
+    /**
+     * The geometry alone, read from the header without decompressing the payload for NIfTI,
+     * NRRD and MetaImage (ImageJ formats read the whole image).
+     */
+    public static Geometry readGeometry(Path file, ReadLimits limits) throws InputException {
+        return require(file).readGeometry(file, limits);
     }
 
     /** The file name without its volume extension (e.g. "case01" for "case01.nii.gz"). */

@@ -1,0 +1,191 @@
+package org.accordia.io;
+
+import java.io.BufferedOutputStream;
+import java.io.IOException;
+import java.io.OutputStream;
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.AtomicMoveNotSupportedException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.util.Locale;
+import java.util.zip.GZIPOutputStream;
+
+/**
+ * Writes single-file NIfTI-1 volumes ({@code .nii.gz} compressed, {@code .nii} raw), little-endian.
+ *
+ * <p>Header as defined in {@code nifti1.h} (NIfTI Data Format Working Group): sizeof_hdr 348,
+ * magic {@code "n+1\0"}, vox_offset 352 (four zero extension bytes after the header), dim[0] = 3
+ * (a 2-D grid is written with dim[3] = 1), pixdim[1..3] = spacing in mm, xyzt_units = 2 (mm),
+ * scl_slope = 1, scl_inter = 0. The geometry's affine is written exactly as the sform
+ * (sform_code = 1, scanner) and as the nearest qform (qform_code = 1): quaternion of the rotation
+ * part with qfac = pixdim[0] = -1 for a left-handed grid; a sheared affine keeps its exact sform
+ * and gets the nearest rotation in the qform.
+ *
+ * <p>Output is deterministic (the gzip header written by {@link GZIPOutputStream} carries
+ * modification time 0 and no file name) and atomic: the bytes go to a temporary file in the
+ * target folder, which is then renamed onto the target.
+ */
+public final class NiftiWriter {
+    static final int HEADER_BYTES = 348;
+    static final int VOX_OFFSET = 352;
+
+    static final short DT_UINT8 = 2;
+    static final short DT_UINT16 = 512;
+    static final short DT_FLOAT32 = 16;
+
+    private NiftiWriter() {
+    }
+
+    /**
+     * Writes a label mask: uint8 when the largest label is at most 255, else uint16.
+     *
+     * @throws IllegalArgumentException when a label exceeds 65535 or the name does not end in
+     *     .nii or .nii.gz
+     */
+    public static void writeLabels(Path out, LabelVolume v) throws IOException {
+        checkName(out);
+        if (v.maxLabel() > 65535) {
+            throw new IllegalArgumentException("label " + v.maxLabel() + " exceeds 65535, the largest a uint16 NIfTI mask holds");
+        }
+        Geometry g = v.geometry();
+        int n = v.voxelCount();
+        if (v.isCompact()) {
+            byte[] data = v.bytes();
+            write(out, g, DT_UINT8, 8, 0, v.maxLabel(), os -> os.write(data, 0, n));
+        } else {
+            int[] labels = v.ints();
+            write(out, g, DT_UINT16, 16, 0, v.maxLabel(), os -> {
+                byte[] buf = new byte[1 << 16];
+                int k = 0;
+                for (int i = 0; i < n; i++) {
+                    int value = labels[i];
+                    buf[k++] = (byte) value;
+                    buf[k++] = (byte) (value >>> 8);
+                    if (k == buf.length) {
+                        os.write(buf, 0, k);
+                        k = 0;
+                    }
+                }
+                os.write(buf, 0, k);
+            });
+        }
+    }
+
+    /** Writes per-voxel probabilities (or any float map) as float32. */
+    public static void writeProbability(Path out, Geometry g, float[] values) throws IOException {
+        checkName(out);
+        if (values.length != g.voxelCount()) {
+            throw new IllegalArgumentException("values has " + values.length + " entries, geometry "
+                + g.dimsText() + " needs " + g.voxelCount());
+        }
+        write(out, g, DT_FLOAT32, 32, 0, 1, os -> writeFloats(os, values));
+    }
+
+    /** Writes an intensity image as float32. */
+    public static void writeImage(Path out, ImageVolume v) throws IOException {
+        checkName(out);
+        write(out, v.geometry(), DT_FLOAT32, 32, 0, 0, os -> writeFloats(os, v.data()));
+    }
+
+    private static void writeFloats(OutputStream os, float[] values) throws IOException {
+        ByteBuffer bb = ByteBuffer.allocate(1 << 16).order(ByteOrder.LITTLE_ENDIAN);
+        for (float f : values) {
+            if (!bb.hasRemaining()) {
+                os.write(bb.array(), 0, bb.position());
+                bb.clear();
+            }
+            bb.putFloat(f);
+        }
+        os.write(bb.array(), 0, bb.position());
+    }
+
+    private static void checkName(Path out) {
+        String name = out.getFileName().toString().toLowerCase(Locale.ROOT);
+        if (!name.endsWith(".nii") && !name.endsWith(".nii.gz")) {
+            throw new IllegalArgumentException("NIfTI output must end in .nii or .nii.gz: " + out);
+        }
+    }
+
+    @FunctionalInterface
+    private interface Body {
+        void write(OutputStream os) throws IOException;
+    }
+
+    private static void write(Path out, Geometry g, short datatype, int bitpix, double calMin, double calMax, Body body)
+            throws IOException {
+        boolean gzip = out.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".gz");
+        Path dir = out.toAbsolutePath().getParent();
+        Files.createDirectories(dir);
+        Path tmp = Files.createTempFile(dir, "." + out.getFileName(), ".part");
+        boolean done = false;
+        try {
+            try (OutputStream file = Files.newOutputStream(tmp);
+                 OutputStream os = gzip
+                     ? new GZIPOutputStream(file, 1 << 16)
+                     : new BufferedOutputStream(file, 1 << 16)) {
+                os.write(header(g, datatype, bitpix, calMin, calMax));
+                body.write(os);
+            }
+            try {
+                Files.move(tmp, out, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+            } catch (AtomicMoveNotSupportedException e) {
+                Files.move(tmp, out, StandardCopyOption.REPLACE_EXISTING);
+            }
+            done = true;
+        } finally {
+            if (!done) {
+                Files.deleteIfExists(tmp);
+            }
+        }
+    }
+
+    /** The 348-byte header plus the 4 extension bytes (all zero), little-endian. */
+    static byte[] header(Geometry g, short datatype, int bitpix, double calMin, double calMax) {
+        ByteBuffer h = ByteBuffer.allocate(VOX_OFFSET).order(ByteOrder.LITTLE_ENDIAN);
+        double[][] a = g.affine();
+        double[] q = Quaternions.fromAffine(a);
+        h.putInt(0, HEADER_BYTES);
+        h.put(38, (byte) 'r'); // "regular", as Analyze 7.5 expects
+        short[] dim = {3, (short) g.nx(), (short) g.ny(), (short) g.nz(), 1, 1, 1, 1};
+        for (int d = 1; d <= 3; d++) {
+            if (g.dims()[d - 1] > Short.MAX_VALUE) {
+                throw new IllegalArgumentException("dimension " + g.dims()[d - 1] + " exceeds NIfTI-1's limit of 32767");
+            }
+        }
+        for (int i = 0; i < 8; i++) {
+            h.putShort(40 + 2 * i, dim[i]);
+        }
+        h.putShort(70, datatype);
+        h.putShort(72, (short) bitpix);
+        float[] pixdim = {(float) q[3], (float) g.spacing(0), (float) g.spacing(1), (float) g.spacing(2), 1, 1, 1, 1};
+        for (int i = 0; i < 8; i++) {
+            h.putFloat(76 + 4 * i, pixdim[i]);
+        }
+        h.putFloat(108, VOX_OFFSET);
+        h.putFloat(112, 1f); // scl_slope
+        h.putFloat(116, 0f); // scl_inter
+        h.put(123, (byte) 2); // xyzt_units: NIFTI_UNITS_MM, time unknown
+        h.putFloat(124, (float) calMax);
+        h.putFloat(128, (float) calMin);
+        byte[] descrip = "Accordia".getBytes(StandardCharsets.US_ASCII);
+        h.put(148, descrip);
+        h.putShort(252, (short) 1); // qform_code: NIFTI_XFORM_SCANNER_ANAT
+        h.putShort(254, (short) 1); // sform_code: NIFTI_XFORM_SCANNER_ANAT
+        h.putFloat(256, (float) q[0]);
+        h.putFloat(260, (float) q[1]);
+        h.putFloat(264, (float) q[2]);
+        h.putFloat(268, (float) a[0][3]);
+        h.putFloat(272, (float) a[1][3]);
+        h.putFloat(276, (float) a[2][3]);
+        for (int r = 0; r < 3; r++) {
+            for (int c = 0; c < 4; c++) {
+                h.putFloat(280 + 16 * r + 4 * c, (float) a[r][c]);
+            }
+        }
+        h.put(344, new byte[] {'n', '+', '1', 0});
+        return h.array();
+    }
+}

@@ -1,0 +1,370 @@
+package org.accordia.io;
+
+import java.io.EOFException;
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
+import java.nio.channels.Channels;
+import java.nio.channels.FileChannel;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.nio.file.StandardOpenOption;
+import java.util.Locale;
+import java.util.zip.GZIPInputStream;
+import java.util.zip.Inflater;
+import java.util.zip.InflaterInputStream;
+import java.util.zip.ZipException;
+
+/**
+ * The bounded payload decoder shared by the NIfTI, NRRD and MetaImage readers.
+ *
+ * <p>It reads exactly the declared number of bytes, in chunks of at most {@value #CHUNK_BYTES}
+ * bytes, from a raw region of a file or from a gzip or zlib stream starting at a file offset, and
+ * converts them in bulk into a {@link LabelVolume} or an {@link ImageVolume}. Before anything is
+ * allocated it checks the declared voxel count against {@link ReadLimits#maxVoxels()} and 64-bit
+ * overflow, and checks that the file can hold the payload: a raw payload must fit in the file; a
+ * compressed payload must not exceed what the compressed bytes could expand to (deflate expands at
+ * most about 1032:1). After the declared bytes it tries to read a single further byte from a
+ * compressed stream: finding one is an error ("payload larger than declared"), so a gzip bomb is
+ * inflated only to the declared size plus one byte. Trailing bytes after a raw payload are
+ * ignored.
+ */
+final class Payload {
+    /** Bytes decoded per chunk; a multiple of every sample size. */
+    static final int CHUNK_BYTES = 1 << 20;
+
+    /** Upper bound of deflate's expansion ratio (a 258-byte match costs at least 2 bits). */
+    private static final long DEFLATE_MAX_RATIO = 1032;
+
+    private static final int STREAM_BUFFER = 1 << 16;
+
+    private Payload() {
+    }
+
+    /** How the payload bytes are stored. */
+    enum Compression {
+        RAW, GZIP, ZLIB;
+
+        String label() {
+            return this == GZIP ? "gzip" : "zlib";
+        }
+    }
+
+    /**
+     * Where the payload lies and how to decode it.
+     *
+     * @param dataFile the file holding the payload (may differ from the header file)
+     * @param fileOffset byte offset in {@code dataFile} where the raw payload or the compressed
+     *     stream starts (ignored for a raw payload when {@code dataAtEnd})
+     * @param compression raw, gzip or zlib
+     * @param skipDecompressed bytes of decompressed data to discard before the payload (NIfTI
+     *     header inside a .nii.gz, NRRD byte skip on compressed data)
+     * @param dataAtEnd for raw data: the payload is the last bytes of the file (NRRD byte skip -1,
+     *     MetaImage HeaderSize -1)
+     * @param type the sample type
+     * @param order the byte order of multi-byte samples
+     */
+    record Layout(Path dataFile, long fileOffset, Compression compression, long skipDecompressed,
+                  boolean dataAtEnd, SampleType type, ByteOrder order) {
+    }
+
+    /**
+     * The product of the declared dimensions, refused when any is not positive, when the product
+     * overflows 64 bits, or when it exceeds the limit.
+     */
+    static long voxelCount(Path file, long[] dims, ReadLimits limits) throws InputException {
+        long n = 1;
+        for (int d = 0; d < dims.length; d++) {
+            if (dims[d] <= 0) {
+                throw new InputException(file, "dimension " + (d + 1) + " is " + dims[d] + " (must be positive)");
+            }
+        }
+        try {
+            for (long d : dims) {
+                n = Math.multiplyExact(n, d);
+            }
+        } catch (ArithmeticException e) {
+            throw new InputException(file, "declared dimensions " + join(dims) + " overflow a 64-bit voxel count");
+        }
+        if (n > limits.maxVoxels()) {
+            throw new InputException(file, "declares " + n + " voxels (" + join(dims)
+                + "), more than the limit of " + limits.maxVoxels());
+        }
+        return n;
+    }
+
+    static String join(long[] dims) {
+        StringBuilder sb = new StringBuilder();
+        for (int i = 0; i < dims.length; i++) {
+            if (i > 0) {
+                sb.append('x');
+            }
+            sb.append(dims[i]);
+        }
+        return sb.toString();
+    }
+
+    // ---------------------------------------------------------------- labels
+
+    /**
+     * Reads the payload as labels, applying {@code value * slope + inter} when {@code scaled}.
+     * Every value must be integral, finite, non-negative and at most {@link Integer#MAX_VALUE};
+     * the first offending value is named in the error.
+     */
+    static LabelVolume readLabels(Path file, Layout layout, Geometry g, boolean scaled, double slope, double inter)
+            throws InputException {
+        long count = g.voxelCount();
+        checkFits(file, layout, count);
+        LabelBuilder out = new LabelBuilder((int) count);
+        SampleType t = layout.type();
+        ChunkSink sink;
+        if (t == SampleType.UINT8 && !scaled) {
+            sink = (buf, first, n) -> buf.get(buf.position(), out.bytes, first, n);
+        } else if (!t.isFloating() && !scaled) {
+            long[] tmp = new long[CHUNK_BYTES / t.bytes()];
+            sink = (buf, first, n) -> {
+                t.decodeLongs(buf, tmp, n);
+                for (int i = 0; i < n; i++) {
+                    long v = tmp[i];
+                    if (v < 0 && t != SampleType.UINT64) {
+                        throw new InputException(file, "negative label value " + v + " at voxel " + where(g, first + i));
+                    }
+                    if (v < 0 || v > Integer.MAX_VALUE) {
+                        throw new InputException(file, "label value " + Long.toUnsignedString(v)
+                            + " exceeds the largest supported label " + Integer.MAX_VALUE + " at voxel " + where(g, first + i));
+                    }
+                    out.put(first + i, (int) v);
+                }
+            };
+        } else {
+            double[] tmp = new double[CHUNK_BYTES / t.bytes()];
+            sink = (buf, first, n) -> {
+                t.decodeDoubles(buf, tmp, n);
+                for (int i = 0; i < n; i++) {
+                    double v = scaled ? tmp[i] * slope + inter : tmp[i];
+                    if (Double.isNaN(v)) {
+                        throw new InputException(file, "label value NaN at voxel " + where(g, first + i));
+                    }
+                    if (v != Math.rint(v) || Double.isInfinite(v)) {
+                        throw new InputException(file, "non-integral label value " + fmt(v)
+                            + " at voxel " + where(g, first + i) + (scaled ? " (after scaling)" : ""));
+                    }
+                    if (v < 0) {
+                        throw new InputException(file, "negative label value " + fmt(v) + " at voxel " + where(g, first + i));
+                    }
+                    if (v > Integer.MAX_VALUE) {
+                        throw new InputException(file, "label value " + fmt(v) + " exceeds the largest supported label "
+                            + Integer.MAX_VALUE + " at voxel " + where(g, first + i));
+                    }
+                    out.put(first + i, (int) v);
+                }
+            };
+        }
+        stream(file, layout, count, sink);
+        return out.ints != null ? LabelVolume.ofInts(g, out.ints) : LabelVolume.ofBytes(g, out.bytes);
+    }
+
+    // ---------------------------------------------------------------- images
+
+    /** Reads the payload as floats, applying {@code value * slope + inter} when {@code scaled}. */
+    static ImageVolume readImage(Path file, Layout layout, Geometry g, boolean scaled, double slope, double inter)
+            throws InputException {
+        long count = g.voxelCount();
+        checkFits(file, layout, count);
+        float[] out = new float[(int) count];
+        SampleType t = layout.type();
+        ChunkSink sink;
+        if (t == SampleType.FLOAT32 && !scaled) {
+            sink = (buf, first, n) -> buf.asFloatBuffer().get(out, first, n);
+        } else {
+            double[] tmp = new double[CHUNK_BYTES / t.bytes()];
+            sink = (buf, first, n) -> {
+                t.decodeDoubles(buf, tmp, n);
+                for (int i = 0; i < n; i++) {
+                    out[first + i] = (float) (scaled ? tmp[i] * slope + inter : tmp[i]);
+                }
+            };
+        }
+        stream(file, layout, count, sink);
+        return new ImageVolume(g, out);
+    }
+
+    // ---------------------------------------------------------------- streaming core
+
+    /** Receives {@code n} samples starting at the buffer's position; sample {@code first} is the first. */
+    @FunctionalInterface
+    private interface ChunkSink {
+        void accept(ByteBuffer buf, int first, int n) throws InputException;
+    }
+
+    /** Refuses, before any allocation, a payload the file cannot hold. */
+    static void checkFits(Path file, Layout l, long count) throws InputException {
+        long nbytes = Math.multiplyExact(count, (long) l.type().bytes());
+        long size = fileSize(file, l.dataFile());
+        if (l.compression() == Compression.RAW) {
+            long start = l.dataAtEnd() ? size - nbytes : l.fileOffset();
+            if (start < 0 || size - start < nbytes) {
+                long found = l.dataAtEnd() ? size : Math.max(0, size - start);
+                throw new InputException(file, "truncated data: expected " + nbytes + " bytes, found " + found
+                    + dataFileNote(file, l));
+            }
+        } else {
+            long available = size - l.fileOffset();
+            if (available <= 0) {
+                throw new InputException(file, "truncated data: expected " + nbytes + " bytes, found 0" + dataFileNote(file, l));
+            }
+            if (available < Long.MAX_VALUE / (2 * DEFLATE_MAX_RATIO)) {
+                long most = available * DEFLATE_MAX_RATIO + 1024;
+                long needed = l.skipDecompressed() + nbytes;
+                if (needed < 0 || needed > most) {
+                    throw new InputException(file, "truncated data: expected " + nbytes + " bytes, but " + available
+                        + " bytes of " + l.compression().label() + " data can expand to at most " + most + dataFileNote(file, l));
+                }
+            }
+        }
+    }
+
+    private static String dataFileNote(Path file, Layout l) {
+        return l.dataFile().equals(file) ? "" : " in data file " + l.dataFile();
+    }
+
+    static long fileSize(Path reported, Path file) throws InputException {
+        try {
+            return java.nio.file.Files.size(file);
+        } catch (NoSuchFileException e) {
+            throw new InputException(reported, reported.equals(file) ? "file not found" : "data file not found: " + file);
+        } catch (IOException e) {
+            throw new InputException(reported, "cannot read " + file + ": " + e.getMessage(), e);
+        }
+    }
+
+    private static void stream(Path file, Layout l, long count, ChunkSink sink) throws InputException {
+        int sampleBytes = l.type().bytes();
+        long nbytes = count * sampleBytes;
+        int chunk = (int) Math.min(CHUNK_BYTES, Math.max(8, (nbytes + 7) / 8 * 8));
+        byte[] buf = new byte[chunk];
+        ByteBuffer bb = ByteBuffer.wrap(buf).order(l.order());
+        try (FileChannel ch = FileChannel.open(l.dataFile(), StandardOpenOption.READ)) {
+            long size = ch.size();
+            if (l.compression() == Compression.RAW) {
+                long pos = l.dataAtEnd() ? size - nbytes : l.fileOffset();
+                if (pos < 0 || size - pos < nbytes) {
+                    throw new InputException(file, "truncated data: expected " + nbytes + " bytes, found "
+                        + Math.max(0, size - Math.max(pos, 0)) + dataFileNote(file, l));
+                }
+                long done = 0;
+                while (done < nbytes) {
+                    int want = (int) Math.min(chunk, nbytes - done);
+                    bb.clear().limit(want);
+                    while (bb.hasRemaining()) {
+                        int r = ch.read(bb, pos + done + bb.position());
+                        if (r < 0) {
+                            throw new InputException(file, "truncated data: expected " + nbytes + " bytes, found "
+                                + (done + bb.position()) + dataFileNote(file, l));
+                        }
+                    }
+                    bb.position(0);
+                    sink.accept(bb, (int) (done / sampleBytes), want / sampleBytes);
+                    done += want;
+                }
+                return;
+            }
+            ch.position(l.fileOffset());
+            InputStream raw = Channels.newInputStream(ch);
+            long done = 0;
+            try (InputStream in = l.compression() == Compression.GZIP
+                    ? new GZIPInputStream(raw, STREAM_BUFFER)
+                    : new InflaterInputStream(raw, new Inflater(), STREAM_BUFFER)) {
+                long skip = l.skipDecompressed();
+                while (skip > 0) {
+                    int want = (int) Math.min(chunk, skip);
+                    if (readFully(in, buf, want) < want) {
+                        throw new InputException(file, "truncated data: the " + l.compression().label()
+                            + " stream ends before the payload starts (at byte " + l.skipDecompressed() + ")" + dataFileNote(file, l));
+                    }
+                    skip -= want;
+                }
+                while (done < nbytes) {
+                    int want = (int) Math.min(chunk, nbytes - done);
+                    int got = readFully(in, buf, want);
+                    if (got < want) {
+                        throw new InputException(file, "truncated data: expected " + nbytes + " bytes, found "
+                            + (done + got) + dataFileNote(file, l));
+                    }
+                    bb.clear().limit(want);
+                    sink.accept(bb, (int) (done / sampleBytes), want / sampleBytes);
+                    done += want;
+                }
+                if (in.read() >= 0) {
+                    throw new InputException(file, "payload larger than declared: the " + l.compression().label()
+                        + " stream holds more than the declared " + nbytes + " bytes" + dataFileNote(file, l));
+                }
+            } catch (EOFException e) {
+                throw new InputException(file, "truncated data: expected " + nbytes + " bytes, found " + done
+                    + " (the " + l.compression().label() + " stream ends early)" + dataFileNote(file, l), e);
+            } catch (ZipException e) {
+                throw new InputException(file, "corrupt " + l.compression().label() + " stream: " + e.getMessage()
+                    + dataFileNote(file, l), e);
+            }
+        } catch (NoSuchFileException e) {
+            throw new InputException(file, l.dataFile().equals(file) ? "file not found" : "data file not found: " + l.dataFile());
+        } catch (IOException e) {
+            throw new InputException(file, "cannot read " + l.dataFile() + ": " + e.getMessage(), e);
+        }
+    }
+
+    /** Reads until {@code len} bytes or end of stream; returns the number read. */
+    static int readFully(InputStream in, byte[] buf, int len) throws IOException {
+        int off = 0;
+        while (off < len) {
+            int r = in.read(buf, off, len - off);
+            if (r < 0) {
+                break;
+            }
+            off += r;
+        }
+        return off;
+    }
+
+    static String where(Geometry g, long index) {
+        long nx = g.nx();
+        long ny = g.ny();
+        long x = index % nx;
+        long y = (index / nx) % ny;
+        long z = index / (nx * ny);
+        return "(" + x + ", " + y + ", " + z + ")";
+    }
+
+    private static String fmt(double v) {
+        if (v == Math.rint(v) && Math.abs(v) < 1e15) {
+            return Long.toString((long) v);
+        }
+        return String.format(Locale.ROOT, "%s", v);
+    }
+
+    /** Label store that starts with one byte per voxel and widens to ints at the first label above 255. */
+    private static final class LabelBuilder {
+        byte[] bytes;
+        int[] ints;
+
+        LabelBuilder(int n) {
+            bytes = new byte[n];
+        }
+
+        void put(int i, int v) {
+            if (ints != null) {
+                ints[i] = v;
+            } else if (v <= 255) {
+                bytes[i] = (byte) v;
+            } else {
+                ints = new int[bytes.length];
+                for (int k = 0; k < i; k++) {
+                    ints[k] = bytes[k] & 0xFF;
+                }
+                bytes = null;
+                ints[i] = v;
+            }
+        }
+    }
+}
