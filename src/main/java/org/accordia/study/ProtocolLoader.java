@@ -18,6 +18,7 @@ import org.accordia.io.InputException;
 import org.yaml.snakeyaml.LoaderOptions;
 import org.yaml.snakeyaml.Yaml;
 import org.yaml.snakeyaml.constructor.SafeConstructor;
+import org.yaml.snakeyaml.error.MarkedYAMLException;
 import org.yaml.snakeyaml.error.YAMLException;
 
 /**
@@ -56,7 +57,7 @@ public final class ProtocolLoader {
         try (InputStream in = Files.newInputStream(file)) {
             doc = parse(in);
         } catch (YAMLException e) {
-            throw new InputException(file, "not a valid protocol file: " + firstLine(e.getMessage()), e);
+            throw new InputException(file, "not a valid protocol file: " + describe(e), e);
         } catch (IOException e) {
             throw new InputException(file, "cannot read protocol: " + e.getMessage(), e);
         }
@@ -222,23 +223,16 @@ public final class ProtocolLoader {
         return out;
     }
 
-    private static String firstLine(String s) {
-        if (s == null) {
-            return "parse error";
+    /** One line from a parser error: the problem and where, without the source excerpt. */
+    private static String describe(YAMLException e) {
+        if (e instanceof MarkedYAMLException m && m.getProblem() != null) {
+            String where = m.getProblemMark() == null ? ""
+                : " (line " + (m.getProblemMark().getLine() + 1) + ", column " + (m.getProblemMark().getColumn() + 1) + ")";
+            return m.getProblem().strip().replaceAll("\\s+", " ") + where;
         }
-        String t = s.strip();
-        int nl = t.indexOf('\n');
-        String first = nl < 0 ? t : t.substring(0, nl);
-        // snakeyaml puts the position on the following lines; keep it compact on one line
-        String rest = nl < 0 ? "" : t.substring(nl + 1).replaceAll("\\s+", " ").strip();
-        int at = rest.indexOf("line ");
-        if (at >= 0) {
-            int end = rest.indexOf(',', at);
-            int colEnd = end < 0 ? -1 : rest.indexOf(' ', rest.indexOf("column", end) + 7);
-            String pos = colEnd < 0 ? rest.substring(at) : rest.substring(at, colEnd);
-            return first + " (" + pos.replace(":", "").strip() + ")";
-        }
-        return first;
+        String msg = e.getMessage() == null ? "parse error" : e.getMessage().strip();
+        int nl = msg.indexOf('\n');
+        return nl < 0 ? msg : msg.substring(0, nl);
     }
 
     /** A value in the YAML tree with its dotted path, for messages. */

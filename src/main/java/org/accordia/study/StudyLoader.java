@@ -1,7 +1,6 @@
 package org.accordia.study;
 
 import java.io.IOException;
-import java.io.InputStreamReader;
 import java.io.Reader;
 import java.nio.charset.CharacterCodingException;
 import java.nio.charset.CharsetDecoder;
@@ -51,6 +50,9 @@ public final class StudyLoader {
     public static final String MANIFEST = "manifest.csv";
     /** The longest file name (in characters) accepted as a centre, reader or case name. */
     public static final int MAX_NAME_LENGTH = 255;
+
+    /** The largest manifest accepted, in bytes. */
+    public static final long MAX_MANIFEST_BYTES = 64L << 20;
 
     private static final List<String> REQUIRED = List.of("case", "centre", "reader", "path");
     private static final String OPTIONAL_IMAGE = "image";
@@ -345,7 +347,19 @@ public final class StudyLoader {
         Map<String, Long> pairLine = new HashMap<>();
         Map<String, Long> imageLine = new HashMap<>();
 
-        try (Reader in = new InputStreamReader(Files.newInputStream(manifest), decoder);
+        String text;
+        try {
+            if (Files.size(manifest) > MAX_MANIFEST_BYTES) {
+                throw new InputException(manifest, "manifest larger than " + MAX_MANIFEST_BYTES + " bytes");
+            }
+            text = decoder.decode(java.nio.ByteBuffer.wrap(Files.readAllBytes(manifest))).toString();
+        } catch (CharacterCodingException e) {
+            throw new InputException(manifest, "not valid UTF-8 text", e);
+        } catch (IOException e) {
+            throw new InputException(manifest, "cannot read manifest: " + oneLine(e.getMessage()), e);
+        }
+        int[] lineStarts = lineStarts(text);
+        try (Reader in = new java.io.StringReader(text);
              CSVParser parser = CSVParser.builder().setReader(in).setFormat(format).get()) {
             List<String> header = parser.getHeaderNames();
             if (header.isEmpty()) {
@@ -364,10 +378,8 @@ public final class StudyLoader {
                 }
             }
             boolean hasImage = header.contains(OPTIONAL_IMAGE);
-            long previousEnd = 1;
             for (CSVRecord rec : parser) {
-                long line = previousEnd + 1;
-                previousEnd = parser.getCurrentLineNumber();
+                long line = lineOf(lineStarts, firstContent(text, rec.getCharacterPosition()));
                 if (rec.size() < header.size()) {
                     throw new InputException(manifest, "line " + line + ": " + rec.size() + " column(s), expected "
                         + header.size() + " (" + String.join(",", header) + ")");
@@ -413,20 +425,43 @@ public final class StudyLoader {
             }
         } catch (InputException e) {
             throw e;
-        } catch (CharacterCodingException e) {
-            throw new InputException(manifest, "not valid UTF-8 text", e);
         } catch (IOException | RuntimeException e) {
-            Throwable c = e.getCause() instanceof CharacterCodingException ? e.getCause() : e;
-            if (c instanceof CharacterCodingException) {
-                throw new InputException(manifest, "not valid UTF-8 text", e);
-            }
-            throw new InputException(manifest, "cannot read manifest: " + oneLine(e.getMessage()), e);
+            // commons-csv reports malformed quoting and duplicate header names this way
+            throw new InputException(manifest, "malformed CSV: " + oneLine(e.getMessage()), e);
         }
         if (masks.isEmpty()) {
             return new Study(root, manifest, List.of(), List.of(), List.of(), List.of(), Map.of(),
                 List.of(StudyProblem.error(manifest, "manifest lists no masks")));
         }
         return new Study(root, manifest, List.copyOf(centres), List.copyOf(readers), List.copyOf(cases), masks, images, List.of());
+    }
+
+    /** Offsets at which each line starts (line 1 at offset 0). */
+    private static int[] lineStarts(String text) {
+        List<Integer> starts = new ArrayList<>();
+        starts.add(0);
+        for (int i = 0; i < text.length(); i++) {
+            char ch = text.charAt(i);
+            if (ch == '\n' || (ch == '\r' && (i + 1 >= text.length() || text.charAt(i + 1) != '\n'))) {
+                starts.add(i + 1);
+            }
+        }
+        return starts.stream().mapToInt(Integer::intValue).toArray();
+    }
+
+    /** The first offset at or after {@code pos} that is not blank (empty lines before a record). */
+    private static long firstContent(String text, long pos) {
+        int p = (int) pos;
+        while (p < text.length() && " \t\r\n".indexOf(text.charAt(p)) >= 0) {
+            p++;
+        }
+        return p;
+    }
+
+    /** 1-based line holding a character offset. */
+    private static long lineOf(int[] starts, long offset) {
+        int idx = java.util.Arrays.binarySearch(starts, (int) offset);
+        return idx >= 0 ? idx + 1 : -idx - 1;
     }
 
     private static String field(Path manifest, CSVRecord rec, String column, long line) throws InputException {
