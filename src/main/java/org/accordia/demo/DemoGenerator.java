@@ -276,6 +276,14 @@ public final class DemoGenerator {
     }
 
     static CaseData generateCase(DemoSpec spec, Plan plan, int caseIndex, Geometry geometry) {
+        return generateCase(spec, plan, caseIndex, geometry, false);
+    }
+
+    /**
+     * One case's masks and image. {@code wholeGrid} evaluates the shape on every voxel instead of
+     * the bounding box only: the slow oracle the tests compare the fast path against.
+     */
+    static CaseData generateCase(DemoSpec spec, Plan plan, int caseIndex, Geometry geometry, boolean wholeGrid) {
         SplittableRandom rng = new SplittableRandom(mix(spec.seed(), 2, caseIndex));
         double ex = spec.nx() * spec.sxMm();
         double ey = spec.ny() * spec.syMm();
@@ -331,6 +339,12 @@ public final class DemoGenerator {
         for (int d = 0; d < 3; d++) {
             i0[d] = Math.max(0, (int) Math.floor(lo[d] / sp[d]));
             i1[d] = Math.min(dims[d] - 1, (int) Math.ceil(hi[d] / sp[d]));
+        }
+        if (wholeGrid) {
+            for (int d = 0; d < 3; d++) {
+                i0[d] = 0;
+                i1[d] = dims[d] - 1;
+            }
         }
         int bx = Math.max(0, i1[0] - i0[0] + 1);
         int by = Math.max(0, i1[1] - i0[1] + 1);
