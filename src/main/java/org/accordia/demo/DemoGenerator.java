@@ -249,9 +249,31 @@ public final class DemoGenerator {
     // ---------------------------------------------------------------- one case
 
     /** A rotated (about z) ellipsoid; {@link #f} is its signed-distance-like function in mm. */
-    record Ellipsoid(double cx, double cy, double cz, double a, double b, double c, double cos, double sin) {
+    static final class Ellipsoid {
+        final double cx;
+        final double cy;
+        final double cz;
+        final double a;
+        final double b;
+        final double c;
+        final double cos;
+        final double sin;
+        final double g;
+
+        Ellipsoid(double cx, double cy, double cz, double a, double b, double c, double cos, double sin) {
+            this.cx = cx;
+            this.cy = cy;
+            this.cz = cz;
+            this.a = a;
+            this.b = b;
+            this.c = c;
+            this.cos = cos;
+            this.sin = sin;
+            this.g = StrictMath.cbrt(a * b * c);
+        }
+
         double g() {
-            return Math.cbrt(a * b * c);
+            return g;
         }
 
         double f(double x, double y, double z) {
@@ -260,12 +282,12 @@ public final class DemoGenerator {
             double u = (dx * cos + dy * sin) / a;
             double v = (-dx * sin + dy * cos) / b;
             double w = (z - cz) / c;
-            return (Math.sqrt(u * u + v * v + w * w) - 1) * g();
+            return (Math.sqrt(u * u + v * v + w * w) - 1) * g;
         }
 
         /** Half extent along each world axis of {f < margin} (bound on the rotated box). */
         double[] halfExtent(double margin) {
-            double s = 1 + Math.max(0, margin) / g();
+            double s = 1 + Math.max(0, margin) / g;
             double ex = Math.sqrt(a * a * cos * cos + b * b * sin * sin) * s;
             double ey = Math.sqrt(a * a * sin * sin + b * b * cos * cos) * s;
             return new double[] {ex, ey, c * s};
@@ -302,9 +324,9 @@ public final class DemoGenerator {
         if (plan.secondLesion[caseIndex]) {
             double r = size * (0.035 + 0.015 * rng.nextDouble());
             double dir = rng.nextDouble() * 2 * Math.PI;
-            double dist = Math.max(main.a(), main.b()) + 2.5 * r + 3;
-            second = new Ellipsoid(main.cx() + dist * StrictMath.cos(dir), main.cy() + dist * StrictMath.sin(dir),
-                main.cz(), r, r * 0.9, r * 0.8, 1, 0);
+            double dist = Math.max(main.a, main.b) + 2.5 * r + 3;
+            second = new Ellipsoid(main.cx + dist * StrictMath.cos(dir), main.cy + dist * StrictMath.sin(dir),
+                main.cz, r, r * 0.9, r * 0.8, 1, 0);
         }
         boolean hard = plan.hard[caseIndex];
         boolean core = plan.core[caseIndex];
@@ -319,14 +341,14 @@ public final class DemoGenerator {
         double[] lo = new double[3];
         double[] hi = new double[3];
         double[] h = main.halfExtent(margin);
-        double[] centre = {main.cx(), main.cy(), main.cz()};
+        double[] centre = {main.cx, main.cy, main.cz};
         for (int d = 0; d < 3; d++) {
             lo[d] = centre[d] - h[d];
             hi[d] = centre[d] + h[d];
         }
         if (second != null) {
             double[] h2 = second.halfExtent(margin);
-            double[] c2 = {second.cx(), second.cy(), second.cz()};
+            double[] c2 = {second.cx, second.cy, second.cz};
             for (int d = 0; d < 3; d++) {
                 lo[d] = Math.min(lo[d], c2[d] - h2[d]);
                 hi[d] = Math.max(hi[d], c2[d] + h2[d]);
@@ -431,13 +453,15 @@ public final class DemoGenerator {
                 body[i + nx * j] = logistic(-bf / 2.0);
             }
         }
+        double[] tex = new double[nx];
         for (int k = 0; k < nz; k++) {
             double z = k * spec.szMm();
             for (int j = 0; j < ny; j++) {
                 double y = j * spec.syMm();
+                texture.row(0, spec.sxMm(), nx, y, z, tex);
                 for (int i = 0; i < nx; i++) {
                     double w = body[i + nx * j];
-                    double value = 12 + w * (88 + texture.value(i * spec.sxMm(), y, z));
+                    double value = 12 + w * (88 + tex[i]);
                     int li = i - i0[0];
                     int lj = j - i0[1];
                     int lk = k - i0[2];

@@ -68,6 +68,33 @@ final class SmoothField {
         return c0 * (1 - tz) + c1 * tz;
     }
 
+    /**
+     * Values along one grid row: {@code out[i] = field(x0 + i * dx, y, z)} for i in [0, n),
+     * interpolating in y and z once per coarse column and then linearly along x (the same
+     * trilinear interpolant, evaluated in another order; equal up to rounding).
+     */
+    void row(double x0, double dx, int n, double y, double z, double[] out) {
+        double fy = (y - oy) / step;
+        double fz = (z - oz) / step;
+        int iy = clamp((int) Math.floor(fy), ny - 2);
+        int iz = clamp((int) Math.floor(fz), nz - 2);
+        double ty = Math.max(0, Math.min(1, fy - iy));
+        double tz = Math.max(0, Math.min(1, fz - iz));
+        double[] column = new double[nx];
+        for (int ix = 0; ix < nx; ix++) {
+            int base = ix + nx * (iy + ny * iz);
+            double c0 = values[base] * (1 - ty) + values[base + nx] * ty;
+            double c1 = values[base + nx * ny] * (1 - ty) + values[base + nx * ny + nx] * ty;
+            column[ix] = c0 * (1 - tz) + c1 * tz;
+        }
+        for (int i = 0; i < n; i++) {
+            double fx = (x0 + i * dx - ox) / step;
+            int ix = clamp((int) Math.floor(fx), nx - 2);
+            double tx = Math.max(0, Math.min(1, fx - ix));
+            out[i] = column[ix] * (1 - tx) + column[ix + 1] * tx;
+        }
+    }
+
     private static int clamp(int i, int hi) {
         return i < 0 ? 0 : Math.min(i, hi);
     }

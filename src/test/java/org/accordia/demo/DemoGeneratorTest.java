@@ -337,4 +337,41 @@ class DemoGeneratorTest {
         }
         return best;
     }
+
+    /** The row evaluation of the smooth field equals point-wise trilinear interpolation. */
+    @Test
+    void smoothFieldRowEqualsPointwise() {
+        SmoothField f = new SmoothField(new double[] {-3, 1, 2}, new double[] {40, 30, 25}, 7.0, 2.0,
+            new java.util.SplittableRandom(5));
+        double[] row = new double[60];
+        for (double z : new double[] {-10, 2, 13.3, 25, 40}) {
+            for (double y : new double[] {-5, 1, 17.25, 29.9, 50}) {
+                f.row(-8, 0.9, row.length, y, z, row);
+                for (int i = 0; i < row.length; i++) {
+                    assertEquals(f.value(-8 + i * 0.9, y, z), row[i], 1e-9);
+                    assertTrue(Math.abs(row[i]) <= f.bound() + 1e-12);
+                }
+            }
+        }
+    }
+
+    /** The committed demo-masks/ is exactly what `accordia demo --out demo-masks` writes (docs/demo.md). */
+    @Test
+    void committedDemoStudyMatchesTheDefaultGeneration(@TempDir Path tmp) throws Exception {
+        Path committed = Path.of("demo-masks");
+        DemoGenerator.generate(DemoSpec.defaults(), tmp.resolve("fresh"));
+        List<Path> fresh;
+        try (Stream<Path> w = Files.walk(tmp.resolve("fresh"))) {
+            fresh = w.filter(Files::isRegularFile).map(p -> tmp.resolve("fresh").relativize(p)).sorted().toList();
+        }
+        List<Path> kept;
+        try (Stream<Path> w = Files.walk(committed)) {
+            kept = w.filter(Files::isRegularFile).map(committed::relativize).sorted().toList();
+        }
+        assertEquals(fresh, kept);
+        for (Path rel : fresh) {
+            assertArrayEquals(Files.readAllBytes(tmp.resolve("fresh").resolve(rel)), Files.readAllBytes(committed.resolve(rel)),
+                rel.toString());
+        }
+    }
 }
