@@ -7,9 +7,11 @@ import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.AtomicMoveNotSupportedException;
+import java.nio.file.FileAlreadyExistsException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
+import java.nio.file.StandardOpenOption;
 import java.util.Locale;
 import java.util.zip.GZIPOutputStream;
 
@@ -119,13 +121,28 @@ public final class NiftiWriter {
         boolean gzip = out.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".gz");
         Path dir = out.toAbsolutePath().getParent();
         Files.createDirectories(dir);
-        Path tmp = Files.createTempFile(dir, "." + out.getFileName(), ".part");
+        // Not Files.createTempFile: that would create the file with owner-only permissions; this
+        // keeps the permissions the process's umask gives any new file.
+        Path tmp = null;
+        OutputStream file = null;
+        for (int attempt = 0; file == null; attempt++) {
+            tmp = dir.resolve("." + out.getFileName() + "." + ProcessHandle.current().pid() + "."
+                + Long.toHexString(System.nanoTime() + attempt) + ".part");
+            try {
+                file = Files.newOutputStream(tmp, StandardOpenOption.CREATE_NEW, StandardOpenOption.WRITE);
+            } catch (FileAlreadyExistsException e) {
+                if (attempt > 100) {
+                    throw e;
+                }
+            }
+        }
+        OutputStream target = file;
         boolean done = false;
         try {
-            try (OutputStream file = Files.newOutputStream(tmp);
+            try (target;
                  OutputStream os = gzip
-                     ? new GZIPOutputStream(file, 1 << 16)
-                     : new BufferedOutputStream(file, 1 << 16)) {
+                     ? new GZIPOutputStream(target, 1 << 16)
+                     : new BufferedOutputStream(target, 1 << 16)) {
                 os.write(header(g, datatype, bitpix, calMin, calMax));
                 body.write(os);
             }

@@ -120,7 +120,9 @@ final class Payload {
         SampleType t = layout.type();
         ChunkSink sink;
         if (t == SampleType.UINT8 && !scaled) {
-            sink = (buf, first, n) -> buf.get(buf.position(), out.bytes, first, n);
+            // Fast path: bytes go straight from the file or the inflater into the label array.
+            stream(file, layout, count, null, out.bytes);
+            return LabelVolume.ofBytes(g, out.bytes);
         } else if (!t.isFloating() && !scaled) {
             long[] tmp = new long[CHUNK_BYTES / t.bytes()];
             sink = (buf, first, n) -> {
@@ -161,7 +163,7 @@ final class Payload {
                 }
             };
         }
-        stream(file, layout, count, sink);
+        stream(file, layout, count, sink, null);
         return out.ints != null ? LabelVolume.ofInts(g, out.ints) : LabelVolume.ofBytes(g, out.bytes);
     }
 
@@ -186,7 +188,7 @@ final class Payload {
                 }
             };
         }
-        stream(file, layout, count, sink);
+        stream(file, layout, count, sink, null);
         return new ImageVolume(g, out);
     }
 
@@ -218,7 +220,8 @@ final class Payload {
                 long most = available * DEFLATE_MAX_RATIO + 1024;
                 long needed = l.skipDecompressed() + nbytes;
                 if (needed < 0 || needed > most) {
-                    throw new InputException(file, "truncated data: expected " + nbytes + " bytes, but " + available
+                    throw new InputException(file, "truncated data: expected " + nbytes + " bytes"
+                        + (l.skipDecompressed() > 0 ? " starting at byte " + l.skipDecompressed() : "") + ", but " + available
                         + " bytes of " + l.compression().label() + " data can expand to at most " + most + dataFileNote(file, l));
                 }
             }
@@ -239,11 +242,15 @@ final class Payload {
         }
     }
 
-    private static void stream(Path file, Layout l, long count, ChunkSink sink) throws InputException {
+    /**
+     * Streams the payload in chunks to {@code sink}, or, when {@code direct} is given (one-byte
+     * samples only), reads it straight into that array.
+     */
+    private static void stream(Path file, Layout l, long count, ChunkSink sink, byte[] direct) throws InputException {
         int sampleBytes = l.type().bytes();
         long nbytes = count * sampleBytes;
         int chunk = (int) Math.min(CHUNK_BYTES, Math.max(8, (nbytes + 7) / 8 * 8));
-        byte[] buf = new byte[chunk];
+        byte[] buf = direct != null ? direct : new byte[chunk];
         ByteBuffer bb = ByteBuffer.wrap(buf).order(l.order());
         try (FileChannel ch = FileChannel.open(l.dataFile(), StandardOpenOption.READ)) {
             long size = ch.size();
@@ -256,16 +263,23 @@ final class Payload {
                 long done = 0;
                 while (done < nbytes) {
                     int want = (int) Math.min(chunk, nbytes - done);
-                    bb.clear().limit(want);
+                    if (direct != null) {
+                        bb.clear().position((int) done).limit((int) done + want);
+                    } else {
+                        bb.clear().limit(want);
+                    }
+                    int start = bb.position();
                     while (bb.hasRemaining()) {
-                        int r = ch.read(bb, pos + done + bb.position());
+                        int r = ch.read(bb, pos + done + bb.position() - start);
                         if (r < 0) {
                             throw new InputException(file, "truncated data: expected " + nbytes + " bytes, found "
-                                + (done + bb.position()) + dataFileNote(file, l));
+                                + (done + bb.position() - start) + dataFileNote(file, l));
                         }
                     }
-                    bb.position(0);
-                    sink.accept(bb, (int) (done / sampleBytes), want / sampleBytes);
+                    if (sink != null) {
+                        bb.position(0);
+                        sink.accept(bb, (int) (done / sampleBytes), want / sampleBytes);
+                    }
                     done += want;
                 }
                 return;
@@ -277,9 +291,10 @@ final class Payload {
                     ? new GZIPInputStream(raw, STREAM_BUFFER)
                     : new InflaterInputStream(raw, new Inflater(), STREAM_BUFFER)) {
                 long skip = l.skipDecompressed();
+                byte[] scratch = direct != null ? new byte[(int) Math.min(chunk, Math.max(1, skip))] : buf;
                 while (skip > 0) {
-                    int want = (int) Math.min(chunk, skip);
-                    if (readFully(in, buf, want) < want) {
+                    int want = (int) Math.min(scratch.length, skip);
+                    if (readFully(in, scratch, 0, want) < want) {
                         throw new InputException(file, "truncated data: the " + l.compression().label()
                             + " stream ends before the payload starts (at byte " + l.skipDecompressed() + ")" + dataFileNote(file, l));
                     }
@@ -287,13 +302,15 @@ final class Payload {
                 }
                 while (done < nbytes) {
                     int want = (int) Math.min(chunk, nbytes - done);
-                    int got = readFully(in, buf, want);
+                    int got = direct != null ? readFully(in, direct, (int) done, want) : readFully(in, buf, 0, want);
                     if (got < want) {
                         throw new InputException(file, "truncated data: expected " + nbytes + " bytes, found "
                             + (done + got) + dataFileNote(file, l));
                     }
-                    bb.clear().limit(want);
-                    sink.accept(bb, (int) (done / sampleBytes), want / sampleBytes);
+                    if (sink != null) {
+                        bb.clear().limit(want);
+                        sink.accept(bb, (int) (done / sampleBytes), want / sampleBytes);
+                    }
                     done += want;
                 }
                 if (in.read() >= 0) {
@@ -316,15 +333,20 @@ final class Payload {
 
     /** Reads until {@code len} bytes or end of stream; returns the number read. */
     static int readFully(InputStream in, byte[] buf, int len) throws IOException {
-        int off = 0;
-        while (off < len) {
-            int r = in.read(buf, off, len - off);
+        return readFully(in, buf, 0, len);
+    }
+
+    /** Reads into {@code buf[off, off + len)} until full or end of stream; returns the number read. */
+    static int readFully(InputStream in, byte[] buf, int off, int len) throws IOException {
+        int done = 0;
+        while (done < len) {
+            int r = in.read(buf, off + done, len - done);
             if (r < 0) {
                 break;
             }
-            off += r;
+            done += r;
         }
-        return off;
+        return done;
     }
 
     static String where(Geometry g, long index) {

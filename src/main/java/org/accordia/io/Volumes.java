@@ -12,7 +12,10 @@ import java.util.Locale;
 public final class Volumes {
     /** Every supported format, tried in order; the first whose {@code accepts} is true reads. */
     private static final List<VolumeReader> READERS = List.of(
-        new NiftiReader()
+        new NiftiReader(),
+        new NrrdReader(),
+        new MetaImageReader(),
+        new ImageJReader()
     );
 
     private Volumes() {

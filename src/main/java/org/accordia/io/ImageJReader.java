@@ -1,0 +1,214 @@
+package org.accordia.io;
+
+import ij.ImagePlus;
+import ij.ImageStack;
+import ij.io.FileInfo;
+import ij.io.Opener;
+import ij.io.TiffDecoder;
+import ij.measure.Calibration;
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.util.Locale;
+
+/**
+ * Reads TIFF stacks ({@code .tif}, {@code .tiff}) and PNG images through ImageJ's
+ * {@link Opener}, headless.
+ *
+ * <p>Labels come from 8-bit (grey or indexed colour: the index is the label) and 16-bit grey
+ * images (ImageJ's signed 16-bit calibration is undone), and from 32-bit float images whose
+ * values are all integral; RGB images are refused. Slice k of a stack is z = k; row 0 of an image
+ * is y = 0 (no flip). Spacing comes from ImageJ's {@link Calibration} (pixelWidth, pixelHeight,
+ * pixelDepth) converted to mm from its units (mm, cm, m, µm/um/micron, nm, inch); an image
+ * without a unit ("pixel") gets 1 mm per pixel times its pixel size. The affine is diagonal with
+ * zero origin: these formats carry no orientation. A single image (one slice) gets a z spacing
+ * of 1 mm. Before ImageJ reads any pixels, the size
+ * declared by the TIFF directory or the PNG IHDR chunk is checked against the limits.
+ */
+public final class ImageJReader implements VolumeReader {
+    @Override
+    public String formatName() {
+        return "TIFF/PNG (ImageJ)";
+    }
+
+    @Override
+    public boolean accepts(Path file) {
+        String name = file.getFileName().toString().toLowerCase(Locale.ROOT);
+        return name.endsWith(".tif") || name.endsWith(".tiff") || name.endsWith(".png");
+    }
+
+    @Override
+    public LabelVolume readLabels(Path file, ReadLimits limits) throws InputException {
+        ImagePlus imp = open(file, limits);
+        Geometry g = geometry(file, imp);
+        ImageStack stack = imp.getStack();
+        int plane = g.nx() * g.ny();
+        int type = imp.getType();
+        if (type == ImagePlus.COLOR_RGB) {
+            throw new InputException(file, "RGB image: label masks must be 8-bit or 16-bit grey (or integral 32-bit)");
+        }
+        if (type == ImagePlus.GRAY8 || type == ImagePlus.COLOR_256) {
+            byte[] out = new byte[(int) g.voxelCount()];
+            for (int z = 0; z < g.nz(); z++) {
+                System.arraycopy((byte[]) stack.getPixels(z + 1), 0, out, z * plane, plane);
+            }
+            return LabelVolume.ofBytes(g, out);
+        }
+        int[] out = new int[(int) g.voxelCount()];
+        boolean signed16 = imp.getCalibration().isSigned16Bit();
+        for (int z = 0; z < g.nz(); z++) {
+            Object pixels = stack.getPixels(z + 1);
+            if (pixels instanceof short[] s) {
+                for (int i = 0; i < plane; i++) {
+                    int v = (s[i] & 0xFFFF) - (signed16 ? 32768 : 0);
+                    if (v < 0) {
+                        throw new InputException(file, "negative label value " + v + " at voxel " + Payload.where(g, (long) z * plane + i));
+                    }
+                    out[z * plane + i] = v;
+                }
+            } else if (pixels instanceof float[] f) {
+                for (int i = 0; i < plane; i++) {
+                    float v = f[i];
+                    String where = Payload.where(g, (long) z * plane + i);
+                    if (Float.isNaN(v)) {
+                        throw new InputException(file, "label value NaN at voxel " + where);
+                    }
+                    if (v != Math.rint(v) || Float.isInfinite(v)) {
+                        throw new InputException(file, "non-integral label value " + v + " at voxel " + where);
+                    }
+                    if (v < 0) {
+                        throw new InputException(file, "negative label value " + (long) v + " at voxel " + where);
+                    }
+                    if (v > Integer.MAX_VALUE) {
+                        throw new InputException(file, "label value " + (long) v + " exceeds the largest supported label at voxel " + where);
+                    }
+                    out[z * plane + i] = (int) v;
+                }
+            } else {
+                throw new InputException(file, "unsupported ImageJ pixel type " + type);
+            }
+        }
+        return LabelVolume.ofInts(g, out);
+    }
+
+    @Override
+    public ImageVolume readImage(Path file, ReadLimits limits) throws InputException {
+        ImagePlus imp = open(file, limits);
+        Geometry g = geometry(file, imp);
+        if (imp.getType() == ImagePlus.COLOR_RGB) {
+            throw new InputException(file, "RGB image: only grey-value images are read");
+        }
+        ImageStack stack = imp.getStack();
+        int plane = g.nx() * g.ny();
+        float[] out = new float[(int) g.voxelCount()];
+        float[] ctable = imp.getCalibration().getCTable();
+        for (int z = 0; z < g.nz(); z++) {
+            Object pixels = stack.getPixels(z + 1);
+            for (int i = 0; i < plane; i++) {
+                float v;
+                if (pixels instanceof byte[] b) {
+                    v = ctable != null ? ctable[b[i] & 0xFF] : b[i] & 0xFF;
+                } else if (pixels instanceof short[] s) {
+                    v = ctable != null ? ctable[s[i] & 0xFFFF] : s[i] & 0xFFFF;
+                } else {
+                    v = ((float[]) pixels)[i];
+                }
+                out[z * plane + i] = v;
+            }
+        }
+        return new ImageVolume(g, out);
+    }
+
+    private static ImagePlus open(Path file, ReadLimits limits) throws InputException {
+        if (!Files.isRegularFile(file)) {
+            throw new InputException(file, Files.exists(file) ? "not a regular file" : "file not found");
+        }
+        String name = file.getFileName().toString().toLowerCase(Locale.ROOT);
+        checkDeclaredSize(file, limits, name.endsWith(".png"));
+        Opener opener = new Opener();
+        opener.setSilentMode(true);
+        ImagePlus imp;
+        try {
+            imp = opener.openImage(file.toAbsolutePath().toString());
+        } catch (RuntimeException | OutOfMemoryError e) {
+            throw new InputException(file, "ImageJ could not read the image: " + e, e);
+        }
+        if (imp == null) {
+            throw new InputException(file, "ImageJ could not read the image (corrupt or unsupported variant)");
+        }
+        if (imp.getNChannels() > 1 || imp.getNFrames() > 1) {
+            throw new InputException(file, "hyperstack with " + imp.getNChannels() + " channels and " + imp.getNFrames()
+                + " time points; only a single-channel stack is read");
+        }
+        long count = (long) imp.getWidth() * imp.getHeight() * imp.getStackSize();
+        if (count > limits.maxVoxels()) {
+            throw new InputException(file, "declares " + count + " voxels, more than the limit of " + limits.maxVoxels());
+        }
+        return imp;
+    }
+
+    /** Checks the size the file declares (TIFF directory, PNG IHDR) before ImageJ reads pixels. */
+    private static void checkDeclaredSize(Path file, ReadLimits limits, boolean png) throws InputException {
+        if (png) {
+            byte[] h;
+            try (InputStream in = Files.newInputStream(file)) {
+                h = in.readNBytes(24);
+            } catch (NoSuchFileException e) {
+                throw new InputException(file, "file not found");
+            } catch (IOException e) {
+                throw new InputException(file, "cannot read: " + e.getMessage(), e);
+            }
+            byte[] sig = {(byte) 0x89, 'P', 'N', 'G', '\r', '\n', 0x1A, '\n'};
+            if (h.length < 24 || !java.util.Arrays.equals(java.util.Arrays.copyOf(h, 8), sig)) {
+                throw new InputException(file, "bad magic: not a PNG file");
+            }
+            java.nio.ByteBuffer b = java.nio.ByteBuffer.wrap(h);
+            long w = b.getInt(16) & 0xFFFFFFFFL;
+            long ht = b.getInt(20) & 0xFFFFFFFFL;
+            Payload.voxelCount(file, new long[] {w, ht}, limits);
+            return;
+        }
+        FileInfo[] info;
+        try {
+            Path parent = file.toAbsolutePath().getParent();
+            info = new TiffDecoder(parent.toString() + java.io.File.separator, file.getFileName().toString()).getTiffInfo();
+        } catch (IOException | RuntimeException e) {
+            throw new InputException(file, "not a readable TIFF: " + e.getMessage(), e);
+        }
+        if (info == null || info.length == 0) {
+            throw new InputException(file, "not a readable TIFF (no image directory)");
+        }
+        long slices = info.length > 1 ? info.length : Math.max(1, info[0].nImages);
+        Payload.voxelCount(file, new long[] {info[0].width, info[0].height, slices}, limits);
+    }
+
+    private static Geometry geometry(Path file, ImagePlus imp) throws InputException {
+        Calibration cal = imp.getCalibration();
+        double sx = scaled(file, "pixel width", cal.pixelWidth, cal.getXUnit());
+        double sy = scaled(file, "pixel height", cal.pixelHeight, cal.getYUnit());
+        // A single image has no slice thickness of its own: 1 mm by convention (ImageJ's default
+        // pixelDepth of 1 "unit" would otherwise turn a centimetre calibration into 10 mm).
+        double sz = imp.getStackSize() == 1 ? 1.0 : scaled(file, "pixel depth", cal.pixelDepth, cal.getZUnit());
+        return Geometry.axisAligned(imp.getWidth(), imp.getHeight(), imp.getStackSize(), sx, sy, sz);
+    }
+
+    private static double scaled(Path file, String what, double size, String unit) throws InputException {
+        String u = unit == null ? "" : unit.trim();
+        double factor;
+        if (u.isEmpty() || u.equalsIgnoreCase("pixel") || u.equalsIgnoreCase("pixels")) {
+            factor = 1.0;
+        } else {
+            factor = TextHeaders.unitToMm(u);
+            if (Double.isNaN(factor)) {
+                throw new InputException(file, "unknown calibration unit \"" + u + "\" for the " + what);
+            }
+        }
+        double mm = Math.abs(size) * factor;
+        if (!(mm > 0) || Double.isInfinite(mm)) {
+            throw new InputException(file, what + " " + size + " " + u + " is not a valid voxel size");
+        }
+        return mm;
+    }
+}
