@@ -57,6 +57,10 @@ public final class DemoCommand implements Callable<Integer> {
         description = "Margin shift of the shifted centre in mm; 0 plants no shift (default: ${DEFAULT-VALUE}).")
     double centreShiftMm = DemoSpec.defaults().centreShiftMm();
 
+    @Option(names = "--threads", paramLabel = "N",
+        description = "Cases generated in parallel; the files do not depend on it (default: ${DEFAULT-VALUE}).")
+    int threads = Math.max(1, Math.min(4, Runtime.getRuntime().availableProcessors()));
+
     @Override
     public Integer call() throws Exception {
         if (size.length != 3) {
@@ -64,6 +68,9 @@ public final class DemoCommand implements Callable<Integer> {
         }
         if (spacing.length != 3) {
             throw new CommandLine.ParameterException(spec.commandLine(), "--spacing needs three values X,Y,Z");
+        }
+        if (threads < 1) {
+            throw new CommandLine.ParameterException(spec.commandLine(), "--threads must be at least 1");
         }
         DemoSpec d;
         try {
@@ -76,7 +83,7 @@ public final class DemoCommand implements Callable<Integer> {
         long t0 = System.nanoTime();
         DemoTruth truth;
         try {
-            truth = DemoGenerator.generate(d, out);
+            truth = DemoGenerator.generate(d, out, threads);
         } catch (java.io.IOException e) {
             throw new InputException(out, "cannot write: " + e.getMessage(), e);
         }

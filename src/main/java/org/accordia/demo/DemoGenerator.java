@@ -98,6 +98,15 @@ public final class DemoGenerator {
      * @return what was planted (also written as demo-truth.json)
      */
     public static DemoTruth generate(DemoSpec spec, Path outDir) throws IOException, InputException {
+        return generate(spec, outDir, 1);
+    }
+
+    /**
+     * Generates the study with cases spread over {@code threads} workers (each case's files are
+     * independent, so the output is the same whatever the thread count). Memory: about ten
+     * volumes per worker.
+     */
+    public static DemoTruth generate(DemoSpec spec, Path outDir, int threads) throws IOException, InputException {
         if (Files.exists(outDir)) {
             if (!Files.isDirectory(outDir)) {
                 throw new InputException(outDir, "output exists and is not a folder");
@@ -117,22 +126,59 @@ public final class DemoGenerator {
         Files.createDirectories(outDir.resolve("images"));
         StringBuilder manifest = new StringBuilder("case,centre,reader,path,image\n");
         for (int c = 0; c < spec.cases(); c++) {
-            CaseData data = generateCase(spec, plan, c, geometry);
             String caseId = plan.caseIds.get(c);
-            for (int r = 0; r < plan.readers.size(); r++) {
-                Reader rd = plan.readers.get(r);
-                Path file = outDir.resolve(rd.centre).resolve(rd.name).resolve(caseId + ".nii.gz");
-                NiftiWriter.writeLabels(file, data.masks.get(r));
+            for (Reader rd : plan.readers) {
                 manifest.append(caseId).append(',').append(rd.centre).append(',').append(rd.name).append(',')
                     .append(rd.centre).append('/').append(rd.name).append('/').append(caseId).append(".nii.gz,")
                     .append("images/").append(caseId).append(".nii.gz\n");
             }
-            NiftiWriter.writeImage(outDir.resolve("images").resolve(caseId + ".nii.gz"), data.image);
+        }
+        int workers = Math.max(1, Math.min(threads, spec.cases()));
+        java.util.concurrent.ExecutorService pool = java.util.concurrent.Executors.newFixedThreadPool(workers, r -> {
+            Thread t = new Thread(r, "accordia-demo");
+            t.setDaemon(true);
+            return t;
+        });
+        try {
+            List<java.util.concurrent.Future<Void>> done = new ArrayList<>();
+            for (int c = 0; c < spec.cases(); c++) {
+                int caseIndex = c;
+                done.add(pool.submit(() -> {
+                    writeCase(spec, plan, caseIndex, geometry, outDir);
+                    return null;
+                }));
+            }
+            for (java.util.concurrent.Future<Void> f : done) {
+                f.get();
+            }
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new IOException("interrupted", e);
+        } catch (java.util.concurrent.ExecutionException e) {
+            if (e.getCause() instanceof IOException io) {
+                throw io;
+            }
+            if (e.getCause() instanceof RuntimeException re) {
+                throw re;
+            }
+            throw new IllegalStateException(e.getCause());
+        } finally {
+            pool.shutdownNow();
         }
         writeAtomically(outDir.resolve("manifest.csv"), manifest.toString());
         DemoTruth truth = plan.truth;
         writeAtomically(outDir.resolve(DemoTruth.FILE_NAME), DemoTruth.mapper().writeValueAsString(truth) + "\n");
         return truth;
+    }
+
+    private static void writeCase(DemoSpec spec, Plan plan, int c, Geometry geometry, Path outDir) throws IOException {
+        CaseData data = generateCase(spec, plan, c, geometry);
+        String caseId = plan.caseIds.get(c);
+        for (int r = 0; r < plan.readers.size(); r++) {
+            Reader rd = plan.readers.get(r);
+            NiftiWriter.writeLabels(outDir.resolve(rd.centre).resolve(rd.name).resolve(caseId + ".nii.gz"), data.masks.get(r));
+        }
+        NiftiWriter.writeImage(outDir.resolve("images").resolve(caseId + ".nii.gz"), data.image);
     }
 
     private static void writeAtomically(Path target, String text) throws IOException {

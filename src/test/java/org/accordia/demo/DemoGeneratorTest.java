@@ -46,7 +46,7 @@ class DemoGeneratorTest {
     @Test
     void sameSeedGivesByteIdenticalFilesAndAnotherSeedDoesNot(@TempDir Path tmp) throws Exception {
         DemoGenerator.generate(SMALL, tmp.resolve("a"));
-        DemoGenerator.generate(SMALL, tmp.resolve("b"));
+        DemoGenerator.generate(SMALL, tmp.resolve("b"), 3);
         DemoGenerator.generate(SMALL.withSeed(7), tmp.resolve("c"));
         List<Path> files;
         try (Stream<Path> w = Files.walk(tmp.resolve("a"))) {

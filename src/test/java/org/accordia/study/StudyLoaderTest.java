@@ -255,4 +255,31 @@ class StudyLoaderTest {
         Study s = StudyLoader.load(root, LoadOptions.DEFAULT);
         assertTrue(s.cases().contains("c".repeat(240)));
     }
+
+    /**
+     * A name that was not valid text in the system encoding reaches Java with U+FFFD in place of
+     * the bad bytes; such a file is reported and skipped. (Creating truly invalid bytes needs a
+     * non-Java tool, so the decoded form is planted directly.)
+     */
+    @Test
+    void undecodableFileNamesAreReportedNotFatal() throws Exception {
+        layout();
+        touch("alpha/a1/caf\uFFFD.nii.gz");
+        Study s = StudyLoader.load(root, LoadOptions.DEFAULT);
+        assertEquals(List.of("case1", "case2"), s.cases());
+        assertTrue(s.problems().get(0).message().contains("not valid text"), s.problems().toString());
+    }
+
+    @Test
+    void manifestThatIsNotUtf8IsRefused() throws Exception {
+        Path m = root.resolve("m.csv");
+        Files.write(m, new byte[] {'c', 'a', 's', 'e', ',', (byte) 0xff, '\n'});
+        assertEquals(m.toAbsolutePath() + ": not valid UTF-8 text", refused(m).getMessage());
+    }
+
+    @Test
+    void imageMustBeTheSameOnEveryRowOfACase() throws Exception {
+        Path m = manifest("m.csv", "case,centre,reader,path,image\nc1,a,r1,x.nii.gz,i1.nii.gz\nc1,a,r2,y.nii.gz,i2.nii.gz\n");
+        assertTrue(refused(m).getMessage().contains("line 3: case 'c1' has image 'i2.nii.gz' here but"));
+    }
 }
