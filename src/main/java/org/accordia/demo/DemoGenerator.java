@@ -214,7 +214,7 @@ public final class DemoGenerator {
         for (int c = 0; c < spec.cases(); c++) {
             caseIds.add(caseName(c, spec.cases()));
         }
-        int shifted = spec.centreShiftMm() != 0 ? (spec.centres() > 1 ? 1 : 0) : -1;
+        int shifted = spec.centreShiftMm() != 0 && spec.centres() > 1 ? 1 : -1;
         // the reader who misses the second lesion: at a centre other than the shifted one
         int missCentre = spec.centres() > 1 ? (shifted == 0 ? 1 : 0) : 0;
         int missingReader = spec.missedLesionCases() > 0
@@ -256,10 +256,22 @@ public final class DemoGenerator {
             }
             infos.add(new DemoTruth.CentreInfo(centres.get(c), countryOf(c), names));
         }
-        String scenario = "Fictional lesion-segmentation pilot across " + spec.centres() + " centres in fictional "
-            + "countries; every reader draws a smooth truth shape with a personal margin bias and smooth boundary "
-            + "noise. Planted: a centre drawing a wider margin, a reader missing a small second lesion in some cases, "
-            + "hard cases with large disagreement, and a core (label 2) inside the lesion (label 1) in some cases.";
+        List<String> planted = new ArrayList<>();
+        if (shifted >= 0) {
+            planted.add(String.format(Locale.ROOT, "the readers of centre %s draw a margin %+.2f mm wider", centres.get(shifted),
+                spec.centreShiftMm()));
+        }
+        if (missingReader >= 0) {
+            planted.add("reader " + readers.get(missingReader).centre + "/" + readers.get(missingReader).name
+                + " misses the small second lesion in " + spec.missedLesionCases() + " case(s)");
+        }
+        if (spec.hardCases() > 0) {
+            planted.add(spec.hardCases() + " hard case(s) with large disagreement");
+        }
+        planted.add("a core (label 2) inside the lesion (label 1) in some cases");
+        String scenario = "Fictional lesion-segmentation pilot across " + spec.centres() + " centre(s) in fictional "
+            + "countries with " + spec.readersPerCentre() + " reader(s) each; every reader draws a smooth truth shape "
+            + "with a personal margin bias and smooth boundary noise. Planted: " + String.join("; ", planted) + ".";
         DemoTruth truth = new DemoTruth(scenario, spec.seed(), spec, infos,
             shifted >= 0 ? centres.get(shifted) : null, shifted >= 0 ? spec.centreShiftMm() : 0.0,
             missingReader >= 0 ? readers.get(missingReader).centre : null,
