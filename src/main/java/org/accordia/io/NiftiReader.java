@@ -84,7 +84,7 @@ public final class NiftiReader implements VolumeReader {
             throw new InputException(file, "cannot read: " + e.getMessage(), e);
         }
         try (InputStream fileIn = Files.newInputStream(file);
-             InputStream in = gzip ? new GZIPInputStream(fileIn, 1 << 16) : fileIn) {
+             InputStream in = gzip ? new GZIPInputStream(fileIn, 4096) : fileIn) {
             got = Payload.readFully(in, raw, raw.length);
         } catch (EOFException e) {
             throw new InputException(file, "truncated header: the gzip stream ends inside the header", e);

@@ -124,7 +124,7 @@ final class Payload {
             stream(file, layout, count, null, out.bytes);
             return LabelVolume.ofBytes(g, out.bytes);
         } else if (!t.isFloating() && !scaled) {
-            long[] tmp = new long[CHUNK_BYTES / t.bytes()];
+            long[] tmp = new long[chunkSamples(count, t)];
             sink = (buf, first, n) -> {
                 t.decodeLongs(buf, tmp, n);
                 for (int i = 0; i < n; i++) {
@@ -140,7 +140,7 @@ final class Payload {
                 }
             };
         } else {
-            double[] tmp = new double[CHUNK_BYTES / t.bytes()];
+            double[] tmp = new double[chunkSamples(count, t)];
             sink = (buf, first, n) -> {
                 t.decodeDoubles(buf, tmp, n);
                 for (int i = 0; i < n; i++) {
@@ -180,7 +180,7 @@ final class Payload {
         if (t == SampleType.FLOAT32 && !scaled) {
             sink = (buf, first, n) -> buf.asFloatBuffer().get(out, first, n);
         } else {
-            double[] tmp = new double[CHUNK_BYTES / t.bytes()];
+            double[] tmp = new double[chunkSamples(count, t)];
             sink = (buf, first, n) -> {
                 t.decodeDoubles(buf, tmp, n);
                 for (int i = 0; i < n; i++) {
@@ -190,6 +190,11 @@ final class Payload {
         }
         stream(file, layout, count, sink, null);
         return new ImageVolume(g, out);
+    }
+
+    /** Samples per chunk: a full chunk, or the whole payload when smaller. */
+    private static int chunkSamples(long count, SampleType t) {
+        return (int) Math.min(count, CHUNK_BYTES / t.bytes());
     }
 
     // ---------------------------------------------------------------- streaming core
@@ -287,9 +292,10 @@ final class Payload {
             ch.position(l.fileOffset());
             InputStream raw = Channels.newInputStream(ch);
             long done = 0;
+            int inBuf = (int) Math.max(512, Math.min(STREAM_BUFFER, size - l.fileOffset()));
             try (InputStream in = l.compression() == Compression.GZIP
-                    ? new GZIPInputStream(raw, STREAM_BUFFER)
-                    : new InflaterInputStream(raw, new Inflater(), STREAM_BUFFER)) {
+                    ? new GZIPInputStream(raw, inBuf)
+                    : new InflaterInputStream(raw, new Inflater(), inBuf)) {
                 long skip = l.skipDecompressed();
                 byte[] scratch = direct != null ? new byte[(int) Math.min(chunk, Math.max(1, skip))] : buf;
                 while (skip > 0) {

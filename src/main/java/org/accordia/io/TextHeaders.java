@@ -25,7 +25,10 @@ final class TextHeaders {
     /** The first bytes of a file (at most {@link #MAX_HEADER_BYTES}). */
     static byte[] head(Path file) throws InputException {
         try (InputStream in = Files.newInputStream(file)) {
-            return in.readNBytes(MAX_HEADER_BYTES);
+            long size = Files.size(file);
+            byte[] buf = new byte[(int) Math.min(size, MAX_HEADER_BYTES)];
+            int n = Payload.readFully(in, buf, buf.length);
+            return n == buf.length ? buf : java.util.Arrays.copyOf(buf, n);
         } catch (NoSuchFileException e) {
             throw new InputException(file, "file not found");
         } catch (IOException e) {

@@ -190,4 +190,52 @@ class NiftiWriterTest {
             }
         }
     }
+
+    @Test
+    void twoDimensionalGridRoundTrip() throws Exception {
+        Geometry g = Geometry.axisAligned(4, 3, 1, 0.5, 0.25, 1);
+        byte[] labels = {0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11};
+        Path out = dir.resolve("flat.nii.gz");
+        NiftiWriter.writeLabels(out, LabelVolume.ofBytes(g, labels.clone()));
+        LabelVolume back = Volumes.readLabels(out, ReadLimits.DEFAULT);
+        assertArrayEquals(labels, back.bytes());
+        assertGeometryClose(g, back.geometry(), 0);
+    }
+
+    @Test
+    void geometryAloneDoesNotReadThePayload() throws Exception {
+        // A .nii.gz whose payload is cut short: the header-only read still succeeds, the full read fails.
+        Geometry g = oblique();
+        Path out = dir.resolve("whole.nii.gz");
+        NiftiWriter.writeLabels(out, LabelVolume.ofBytes(g, new byte[(int) g.voxelCount()]));
+        byte[] raw;
+        try (var in = new GZIPInputStream(Files.newInputStream(out))) {
+            raw = in.readAllBytes();
+        }
+        Path cut = TestFiles.write(dir.resolve("cut.nii.gz"), TestFiles.gzip(java.util.Arrays.copyOf(raw, 360)));
+        assertGeometryClose(g, Volumes.readGeometry(cut, ReadLimits.DEFAULT), 1e-5);
+        assertThrows(InputException.class, () -> Volumes.readLabels(cut, ReadLimits.DEFAULT));
+    }
+
+    @Test
+    void payloadsSpanningSeveralChunksRoundTrip() throws Exception {
+        // 1.2 million voxels: more than one 1 MiB chunk for uint8 and for uint16, raw and gzip.
+        Geometry g = Geometry.axisAligned(150, 100, 80, 1, 1, 1);
+        int n = (int) g.voxelCount();
+        Random rnd = new Random(3);
+        int[] wide = new int[n];
+        byte[] narrow = new byte[n];
+        for (int i = 0; i < n; i++) {
+            wide[i] = rnd.nextInt(10) == 0 ? 256 + rnd.nextInt(60000) : rnd.nextInt(3);
+            narrow[i] = (byte) rnd.nextInt(256);
+        }
+        for (String name : new String[] {"big.nii", "big.nii.gz"}) {
+            Path w = dir.resolve("wide-" + name);
+            NiftiWriter.writeLabels(w, LabelVolume.ofInts(g, wide.clone()));
+            assertArrayEquals(wide, Volumes.readLabels(w, ReadLimits.DEFAULT).ints(), name);
+            Path b = dir.resolve("narrow-" + name);
+            NiftiWriter.writeLabels(b, LabelVolume.ofBytes(g, narrow.clone()));
+            assertArrayEquals(narrow, Volumes.readLabels(b, ReadLimits.DEFAULT).bytes(), name);
+        }
+    }
 }
