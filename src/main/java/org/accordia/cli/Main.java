@@ -16,7 +16,9 @@ import picocli.CommandLine.Command;
         "A research and quality tool, not a diagnostic device. Nothing is sent anywhere."
     },
     subcommands = {
-        CommandLine.HelpCommand.class
+        CommandLine.HelpCommand.class,
+        InspectCommand.class,
+        DemoCommand.class
     },
     exitCodeListHeading = "%nExit codes:%n",
     exitCodeList = {
