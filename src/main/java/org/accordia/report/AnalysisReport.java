@@ -143,7 +143,14 @@ public final class AnalysisReport {
         List<List<String>> rows = new ArrayList<>();
         for (LabelResult l : r.labels()) {
             for (CaseToAdjudicate c : l.summary().casesToAdjudicate()) {
-                rows.add(List.of(l.name(), c.caseId(), String.join("; ", c.reasons())));
+                List<String> why = new ArrayList<>(c.reasons());
+                for (MissedStructure m : l.missedStructure()) {
+                    if (m.cases().contains(c.caseId())) {
+                        why.add("reader " + m.reader() + " (" + m.centre() + ") leaves out a part of " + l.name()
+                            + " that most readers mark");
+                    }
+                }
+                rows.add(List.of(l.name(), c.caseId(), String.join("; ", why)));
             }
         }
         if (rows.isEmpty()) {
