@@ -524,7 +524,7 @@ public final class AnalysisReport {
         if (!Double.isFinite(est)) {
             return "";
         }
-        return Numbers.format(Numbers.round(Math.round(est * 100) / 100.0))
+        return String.format(Locale.ROOT, "%.2f", est)
             + (Double.isFinite(lo) && Double.isFinite(hi)
             ? String.format(Locale.ROOT, " [%.2f, %.2f]", lo, hi) : "");
     }
