@@ -318,6 +318,19 @@ public final class AnalysisReport {
                     + "centre share means the centres draw differently.",
                 "Stacked bars of variance components per structure");
         }
+        List<List<String>> iccRows = new ArrayList<>();
+        for (LabelResult l : r.labels()) {
+            for (var f : l.summary().icc()) {
+                iccRows.add(List.of(l.name(), f.form(), f.value() == null ? "" : withInterval(f.value(),
+                    f.lower() == null ? Double.NaN : f.lower(), f.upper() == null ? Double.NaN : f.upper())));
+            }
+        }
+        if (iccRows.isEmpty()) {
+            h.paragraph("No ICC of volumes: fewer than two cases were read by every reader.");
+        } else {
+            h.table("Side table: ICC of the readers' volumes (Shrout & Fleiss forms, complete cases only)",
+                List.of("Structure", "Form", "ICC [95% interval]"), iccRows, new boolean[] {false, false, true});
+        }
         for (LabelResult l : r.labels()) {
             List<String> cases = new ArrayList<>();
             double[] v = new double[r.cases().size()];
