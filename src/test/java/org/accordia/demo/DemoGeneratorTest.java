@@ -52,7 +52,8 @@ class DemoGeneratorTest {
         try (Stream<Path> w = Files.walk(tmp.resolve("a"))) {
             files = w.filter(Files::isRegularFile).map(p -> tmp.resolve("a").relativize(p)).sorted().toList();
         }
-        assertEquals(4 * 9 + 4 + 2, files.size(), files.toString());
+        // 4 cases x 9 readers, 4 images, manifest.csv, demo-truth.json, protocol.yaml
+        assertEquals(4 * 9 + 4 + 3, files.size(), files.toString());
         int differ = 0;
         for (Path rel : files) {
             byte[] a = Files.readAllBytes(tmp.resolve("a").resolve(rel));
@@ -353,6 +354,14 @@ class DemoGeneratorTest {
                 }
             }
         }
+    }
+
+    /** protocols/demo.yaml is the generator's protocol resource, byte for byte (one source). */
+    @Test
+    void demoProtocolFileEqualsTheResource() throws Exception {
+        assertEquals(DemoGenerator.protocolYaml(), Files.readString(Path.of("protocols/demo.yaml")));
+        org.accordia.study.Protocol p = org.accordia.study.Protocol.load(Path.of("protocols/demo.yaml"));
+        assertEquals(2, p.structures().size());
     }
 
     /** The committed demo-masks/ is exactly what `accordia demo --out demo-masks` writes (docs/demo.md). */
