@@ -194,6 +194,12 @@ public final class HostileCorpus {
             "ObjectType = Image\nNDims = 3\nDimSize = 4 4 2\nElementType = MET_UCHAR\nCompressedData = True\n"
                 + "CompressedDataSize = 99999\nElementDataFile = LOCAL\n"), gzip(goodVoxels())));
 
+        // ---- TIFF and PNG (read through ImageJ): a directory declaring no height; a PNG cut after its header.
+        c.pair("tiff-zero-dimension", "case1.tif", new byte[] {'I', 'I', 42, 0, 8, 0, 0, 0, 5, 0, 0, 1, 3, 0, 1, 0, 0, 0, 4, 0,
+            -1, -1, -1, -1, -1, -1, -1, -1});
+        c.pair("png-truncated", "case1.png", concat(new byte[] {(byte) 0x89, 'P', 'N', 'G', '\r', '\n', 0x1a, '\n',
+            0, 0, 0, 13, 'I', 'H', 'D', 'R', 0, 0, 0, 4, 0, 0, 0, 4, 8, 0, 0, 0, 0}));
+
         // ---- Study level.
         c.pair("mismatched-geometry", "case1.nii", nifti1(DT_UINT8, 8, new byte[48], 4, 4, 3));
         c.file("reader-under-two-centres", "study/c1/r1/case1.nii", good);

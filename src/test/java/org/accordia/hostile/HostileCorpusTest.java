@@ -76,6 +76,8 @@ class HostileCorpusTest {
             new Kind("nrrd-big-endian-wrong-flag", "r2/case1.nrrd", "non-integral label value"),
             new Kind("metaimage-missing-raw", "r2/case1.mhd", "data file not found"),
             new Kind("metaimage-compressed-size-beyond-file", "r2/case1.mha", "CompressedDataSize is 99999 bytes"),
+            new Kind("tiff-zero-dimension", "r2/case1.tif", "dimension 2 is 0 (must be positive)"),
+            new Kind("png-truncated", "r2/case1.png", "ImageJ could not read the image"),
             new Kind("mismatched-geometry", "r2/case1.nii", "grid differs from"),
             new Kind("reader-under-two-centres", "r1", "appears under two centres"),
             new Kind("one-reader", "study", "the study has 1 reader(s)"),
