@@ -51,7 +51,16 @@ class AnalyzeHostileTest {
         Run r = run("demo", "--out", demo.toString(), "--size", "32,32,12", "--spacing", "2,2,5", "--cases", "3",
             "--centres", "2", "--readers-per-centre", "2");
         assertEquals(0, r.code(), r.err());
+        try {
+            Files.writeString(demo.resolve("protocol.yaml"), LIGHT);
+        } catch (IOException e) {
+            throw new java.io.UncheckedIOException(e);
+        }
     }
+
+    /** The fewest resamples the protocol accepts: these tests check files, not statistics. */
+    static final String LIGHT = "structures:\n  - name: lesion\n    labels: [1, 2]\n  - name: core\n    labels: [2]\n"
+        + "consensus:\n  bootstrap_resamples: 100\nshift:\n  permutations: 99\n";
 
     static String[] analyzeArgs(Path study, Path out, String... extra) {
         List<String> a = new ArrayList<>(List.of("analyze", study.toString(), "--out", out.toString()));
@@ -91,19 +100,25 @@ class AnalyzeHostileTest {
         assertEquals(List.of(), OutputChecks.files(out), k + ": files left in the output folder");
     }
 
+    /**
+     * A bad mask in the last case, found after the first cases' consensus masks were written:
+     * the run stops with one line and removes everything it wrote, including the folder it created.
+     */
     @Test
-    void inputsAreNeverModified() throws Exception {
+    void badMaskInALaterCaseLeavesNoOutputBehind() throws Exception {
         Path study = demoCopy("study");
-        Map<String, String> before = OutputChecks.fingerprint(study);
+        Path bad = study.resolve("norvale/nor2/case03.nii.gz");
+        byte[] b = Files.readAllBytes(bad);
+        Files.write(bad, java.util.Arrays.copyOf(b, b.length / 2));
         Path out = tmp.resolve("out");
-        Run r = run(analyzeArgs(study, out));
-        assertEquals(0, r.code(), r.out() + r.err());
-        assertEquals(before, OutputChecks.fingerprint(study), "the study changed");
-        assertTrue(OutputChecks.assertEveryFinalFileComplete(out) > 0);
-        assertTrue(OutputChecks.files(out).stream().noneMatch(p -> OutputChecks.TEMPORARY.matcher(p.getFileName().toString()).matches()),
-            "temporary files left behind");
+        Run r = run(analyzeArgs(study, out, "--threads", "1"));
+        assertEquals(2, r.code(), r.out() + r.err());
+        assertOneCleanErrLine(r);
+        assertTrue(r.err().contains("nor2/case03.nii.gz: truncated"), r.err());
+        assertFalse(Files.exists(out), "the output folder this run created is removed: " + OutputChecks.files(out));
     }
 
+    /** An existing non-empty folder is refused without --force, and the refusal changes nothing. */
     @Test
     void existingOutputFolderIsNotOverwrittenWithoutForce() throws Exception {
         Path out = Files.createDirectories(tmp.resolve("out"));
@@ -113,14 +128,8 @@ class AnalyzeHostileTest {
         Run r = run(analyzeArgs(demo, out));
         assertEquals(2, r.code(), r.out() + r.err());
         assertOneCleanErrLine(r);
-        assertTrue(r.err().contains("--force"), r.err());
+        assertTrue(r.err().contains("the output folder is not empty") && r.err().contains("--force"), r.err());
         assertEquals(before, OutputChecks.fingerprint(out), "the refused run changed the folder");
-
-        Run forced = run(analyzeArgs(demo, out, "--force"));
-        assertEquals(0, forced.code(), forced.out() + forced.err());
-        assertEquals("keep me\n", Files.readString(out.resolve("keep.txt")));
-        assertFalse(Files.readString(out.resolve("report.html")).equals("my own notes\n"));
-        OutputChecks.assertEveryFinalFileComplete(out);
     }
 
     @Test
@@ -130,7 +139,8 @@ class AnalyzeHostileTest {
         assertEquals(2, r.code(), r.out() + r.err());
         assertOneCleanErrLine(r);
         assertTrue(r.err().contains("declares 12288 voxels (32x32x12), more than the limit of 1000"), r.err());
-        assertTrue(r.err().contains("case01.nii.gz"), r.err());
+        // cases are read in parallel: any of them may be the first refused
+        assertTrue(r.err().matches("(?s)accordia: .*/case0[1-3]\\.nii\\.gz: .*"), r.err());
         assertEquals(List.of(), OutputChecks.files(out));
     }
 
@@ -162,11 +172,21 @@ class AnalyzeHostileTest {
         }
         Files.writeString(study.resolve("manifest.csv"), csv.toString(), StandardCharsets.UTF_8);
         Path protocol = Files.writeString(tmp.resolve("protocol.yaml"),
-            "structures:\n  - name: \"=SUM(A1:A9)\"\n    labels: [1, 2]\n  - name: \"<img src=x onerror=alert(2)>\"\n    labels: [2]\n");
+            "structures:\n  - name: \"=SUM(A1:A9)\"\n    labels: [1, 2]\n  - name: \"<img src=x onerror=alert(2)>\"\n    labels: [2]\n"
+                + "consensus:\n  bootstrap_resamples: 100\nshift:\n  permutations: 99\n");
         Path parent = Files.createDirectories(tmp.resolve("runs"));
         Path out = parent.resolve("out");
-        Run r = run(analyzeArgs(study.resolve("manifest.csv"), out, "--protocol", protocol.toString()));
+        Map<String, String> before = OutputChecks.fingerprint(study);
+        Run r = run(analyzeArgs(study.resolve("manifest.csv"), out, "--protocol", protocol.toString(), "--quiet"));
         assertEquals(0, r.code(), r.out() + r.err());
+        assertEquals("", r.err(), "--quiet: nothing on stderr");
+
+        // inputs: opened read-only, never modified (SHA-256 of every file, the listing, sizes and times)
+        assertEquals(before, OutputChecks.fingerprint(study), "the study changed");
+        // outputs: every file under a final name complete, no temporary left
+        assertTrue(OutputChecks.assertEveryFinalFileComplete(out) > 5);
+        assertTrue(OutputChecks.files(out).stream().noneMatch(p -> OutputChecks.TEMPORARY.matcher(p.getFileName().toString()).matches()),
+            "temporary files left behind");
 
         // paths: everything the run wrote is inside the output folder
         try (Stream<Path> s = Files.list(parent)) {
@@ -219,7 +239,12 @@ class AnalyzeHostileTest {
 
     /** What analyze's one line says for each kind (by default what inspect's problem line says). */
     static final class AnalyzeExpectations {
-        private static final Map<String, String[]> OVERRIDES = new TreeMap<>();
+        private static final Map<String, String[]> OVERRIDES = new TreeMap<>(Map.of(
+            // analyze computes input checksums first: the over-long name fails there, with the system's words
+            "manifest-long-file-name", new String[] {"n".repeat(300) + ".nii", "File name too long"},
+            // a skipped loop or unusable name is a warning; what stops analyze is the single reader left
+            "symlink-loop", new String[] {"study", "the study has 1 reader(s); agreement needs at least 2"},
+            "non-utf8-name", new String[] {"study", "the study has 1 reader(s); agreement needs at least 2"}));
 
         static String file(Kind k) {
             String[] o = OVERRIDES.get(k.kind());

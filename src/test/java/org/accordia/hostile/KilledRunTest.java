@@ -22,7 +22,7 @@ import org.junit.jupiter.api.io.TempDir;
  * complete (CSVs parse and end with a newline, JSON parses, NIfTI volumes read, the HTML ends
  * with its closing tag), the report and summary are either absent or complete, and the only
  * incomplete files are our temporaries ({@code .NAME.partial-<hex>}), which the next run into the
- * folder removes. The run is killed at increasing delays until one finishes before its kill.
+ * folder removes.
  */
 class KilledRunTest {
     @TempDir
@@ -36,70 +36,92 @@ class KilledRunTest {
         return new ProcessBuilder(cmd).redirectErrorStream(true).redirectOutput(logs.toFile()).start();
     }
 
-    @Test
-    void killedRunsLeaveOnlyCompleteFilesUnderFinalNames() throws Exception {
-        Path study = tmp.resolve("study");
-        Run demo = run("demo", "--out", study.toString(), "--size", "80,80,40", "--cases", "8");
-        assertEquals(0, demo.code(), demo.err());
-
-        int killedWhileWriting = 0;
-        int kills = 0;
-        boolean finished = false;
-        for (long delayMs = 700; delayMs <= 12_000 && !finished; delayMs += 700) {
-            Path out = tmp.resolve("out-" + delayMs);
-            Process p = startAnalyze(study, out, tmp.resolve("log-" + delayMs + ".txt"));
-            if (p.waitFor(delayMs, TimeUnit.MILLISECONDS)) {
-                assertEquals(0, p.exitValue(), Files.readString(tmp.resolve("log-" + delayMs + ".txt")));
-                finished = true;
-            } else {
-                p.destroyForcibly();
-                assertTrue(p.waitFor(30, TimeUnit.SECONDS));
-                kills++;
+    /**
+     * Waits until {@code out} holds a file newer than the start (or the process ends), then waits
+     * {@code delayMs} more and kills the process. Returns whether it finished on its own.
+     */
+    static boolean killOnceWriting(Process p, Path out, long delayMs) throws Exception {
+        long start = System.currentTimeMillis();
+        long deadline = start + 60_000;
+        while (System.currentTimeMillis() < deadline && p.isAlive()) {
+            boolean fresh = false;
+            for (Path f : OutputChecks.files(out)) {
+                try {
+                    if (Files.getLastModifiedTime(out.resolve(f)).toMillis() >= start - 1000) {
+                        fresh = true;
+                        break;
+                    }
+                } catch (java.nio.file.NoSuchFileException gone) {
+                    // renamed or removed meanwhile
+                }
             }
-            int complete = OutputChecks.assertEveryFinalFileComplete(out);
-            boolean temporaries = OutputChecks.files(out).stream()
-                .anyMatch(f -> OutputChecks.TEMPORARY.matcher(f.getFileName().toString()).matches());
-            if (!finished && (complete > 0 || temporaries)) {
-                killedWhileWriting++;
+            if (fresh) {
+                break;
             }
-            // the next run into the same folder completes and removes the killed run's temporaries
-            Run again = run("analyze", study.toString(), "--out", out.toString(), "--force");
-            assertEquals(0, again.code(), again.out() + again.err());
-            assertTrue(OutputChecks.files(out).stream()
-                .noneMatch(f -> OutputChecks.TEMPORARY.matcher(f.getFileName().toString()).matches()), "temporaries left");
-            assertTrue(Files.exists(out.resolve("report.html")) && Files.exists(out.resolve("summary.json")));
-            OutputChecks.assertEveryFinalFileComplete(out);
+            Thread.sleep(10);
         }
-        assertTrue(kills > 0, "no run was killed: the study is too small");
-        System.out.printf("killed runs: %d, of which %d while writing outputs; last run finished: %s%n",
-            kills, killedWhileWriting, finished);
+        if (p.waitFor(delayMs, TimeUnit.MILLISECONDS)) {
+            return true;
+        }
+        p.destroyForcibly();
+        assertTrue(p.waitFor(30, TimeUnit.SECONDS));
+        return false;
     }
 
     /**
-     * A forced rerun killed part-way over a complete earlier run: the earlier report and summary
-     * are deleted first (so no old report sits beside new tables), and what remains under final
-     * names is complete.
+     * Kills two runs, right after their first output file appears and 400 ms later (the cases'
+     * consensus masks are being written), checks each folder, then completes a forced rerun into the second
+     * folder (temporaries removed, other files kept) and kills a further forced rerun at 1.5 s:
+     * the earlier complete report is deleted first, so the folder never shows an old report beside
+     * new tables.
      */
     @Test
-    void killedForcedRerunNeverLeavesAHalfReport() throws Exception {
+    void killedRunsLeaveOnlyCompleteFilesUnderFinalNames() throws Exception {
         Path study = tmp.resolve("study");
-        Run demo = run("demo", "--out", study.toString(), "--size", "80,80,40", "--cases", "8");
+        Run demo = run("demo", "--out", study.toString(), "--size", "64,64,32", "--cases", "5", "--centres", "2", "--readers-per-centre", "2");
         assertEquals(0, demo.code(), demo.err());
-        Path out = tmp.resolve("out");
-        Run first = run("analyze", study.toString(), "--out", out.toString());
-        assertEquals(0, first.code(), first.out() + first.err());
-        byte[] report = Files.readAllBytes(out.resolve("report.html"));
-        Process p = startAnalyze(study, out, tmp.resolve("log.txt"), "--force");
-        if (!p.waitFor(1500, TimeUnit.MILLISECONDS)) {
-            p.destroyForcibly();
-            assertTrue(p.waitFor(30, TimeUnit.SECONDS));
+        Files.writeString(study.resolve("protocol.yaml"), AnalyzeHostileTest.LIGHT);
+
+        int killedWithFiles = 0;
+        Path out = null;
+        for (long afterFirstFileMs : new long[] {0, 400}) {
+            out = tmp.resolve("out-" + afterFirstFileMs);
+            Process p = startAnalyze(study, out, tmp.resolve("log-" + afterFirstFileMs + ".txt"));
+            boolean finished = killOnceWriting(p, out, afterFirstFileMs);
+            int complete = OutputChecks.assertEveryFinalFileComplete(out);
+            if (!finished && !OutputChecks.files(out).isEmpty()) {
+                killedWithFiles++;
+            }
+            System.out.printf("kill %d ms after the first output file: finished=%s, %d complete files, %d files in all%n",
+                afterFirstFileMs, finished, complete, OutputChecks.files(out).size());
         }
+        assertTrue(killedWithFiles > 0, "no run was killed while writing");
+
+        // the next run into the folder (with --force) completes and removes the killed run's temporaries
+        Files.createDirectories(out);
+        Files.writeString(out.resolve("keep.txt"), "keep me\n");
+        Run again = run("analyze", study.toString(), "--out", out.toString(), "--force", "--quiet");
+        assertEquals(0, again.code(), again.out() + again.err());
+        assertTrue(OutputChecks.files(out).stream()
+            .noneMatch(f -> OutputChecks.TEMPORARY.matcher(f.getFileName().toString()).matches()), "temporaries left");
+        assertTrue(Files.exists(out.resolve("report.html")) && Files.exists(out.resolve("summary.json")));
+        assertEquals("keep me\n", Files.readString(out.resolve("keep.txt")), "--force keeps files it does not write");
+        OutputChecks.assertEveryFinalFileComplete(out);
+
+        // a forced rerun killed part-way: the complete report of the run before is deleted before anything
+        // new is written, so the folder never shows the old report beside new files
+        byte[] oldReport = Files.readAllBytes(out.resolve("report.html"));
+        java.nio.file.attribute.FileTime oldTime = Files.getLastModifiedTime(out.resolve("report.html"));
+        Process p = startAnalyze(study, out, tmp.resolve("log-forced.txt"), "--force");
+        killOnceWriting(p, out, 200);
         Path html = out.resolve("report.html");
-        if (Files.exists(html)) {
-            byte[] now = Files.readAllBytes(html);
-            assertFalse(now.length == 0, "empty report under its final name");
+        if (Files.exists(html) && java.util.Arrays.equals(oldReport, Files.readAllBytes(html))) {
+            for (Path f : OutputChecks.files(out)) {
+                assertTrue(Files.getLastModifiedTime(out.resolve(f)).compareTo(oldTime) <= 0,
+                    "the old report sits beside a new file " + f);
+            }
         }
         OutputChecks.assertEveryFinalFileComplete(out);
-        assertTrue(report.length > 0);
+        System.out.printf("killed runs that had written files: %d of 2%n", killedWithFiles);
     }
 }
