@@ -17,6 +17,7 @@ for t in "${targets[@]}"; do
   log="target/fuzz-logs/${t/\#/-}.log"
   echo "== $t for ${seconds}s -> $log"
   JAZZER_FUZZ=1 mvn -o -B test -Dtest="$t" -Dsurefire.failIfNoSpecifiedTests=false \
-    -Djazzer.internal.arg.0=fuzz -Djazzer.internal.arg.1=-max_total_time="$seconds" >"$log" 2>&1
+    -Djazzer.hooks=true -Djazzer.internal.arg.0=fuzz -Djazzer.internal.arg.1=-max_total_time="$seconds" \
+    ${JAZZER_INSTRUMENT:+-Djazzer.instrument="$JAZZER_INSTRUMENT"} >"$log" 2>&1
   echo "   exit $?; $(grep -E '^#[0-9]+[[:space:]]+DONE' "$log" | tail -1)"
 done
