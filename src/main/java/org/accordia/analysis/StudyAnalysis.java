@@ -80,15 +80,22 @@ public final class StudyAnalysis {
     private StudyAnalysis() {
     }
 
-    /** The shift settings a protocol implies (bootstrap resamples from the consensus section). */
+    /**
+     * The shift settings a protocol implies. Resampling sizes follow the protocol's
+     * {@code consensus.bootstrap_resamples} (B, default 2000): B case-bootstrap resamples for the
+     * centre and reader effects, and B/10 (at most the documented defaults 200 and 199) parametric
+     * bootstrap resamples for the variance-component intervals and the test of σ²_centre = 0.
+     */
     public static ShiftSettings shiftSettings(Protocol p) {
         Protocol.Shift s = p.shift();
         Protocol.Review r = p.review();
         return new ShiftSettings(s.alpha(), s.minimumShiftMm(), s.minimumVolumeShiftPercent(), r.adjudicationDice(),
             r.adjudicationHd95Mm(), r.adjudicationShareForReview(), r.recalibrationToleranceMm(),
             r.recalibrationVolumePercent(), s.permutations(), ShiftSettings.DEFAULT_EXACT_LIMIT,
-            p.consensus().bootstrapResamples(), ShiftSettings.DEFAULT_VARIANCE_RESAMPLES,
-            ShiftSettings.DEFAULT_CENTRE_TEST_RESAMPLES, p.seed());
+            p.consensus().bootstrapResamples(),
+            Math.min(ShiftSettings.DEFAULT_VARIANCE_RESAMPLES, p.consensus().bootstrapResamples() / 10),
+            Math.min(ShiftSettings.DEFAULT_CENTRE_TEST_RESAMPLES, p.consensus().bootstrapResamples() / 10 - 1),
+            p.seed());
     }
 
     /** As {@link #run(CaseSource, Protocol, AnalysisOptions, CaseSink, Runnable)} without a sink. */
