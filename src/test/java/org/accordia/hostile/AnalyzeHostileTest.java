@@ -118,6 +118,24 @@ class AnalyzeHostileTest {
         assertFalse(Files.exists(out), "the output folder this run created is removed: " + OutputChecks.files(out));
     }
 
+    /**
+     * A study with a single centre (two readers) is analysable: the between-centre part is not
+     * estimable and the report says so (the centre-effect charts used to fail with an internal
+     * error on an empty list of centres).
+     */
+    @Test
+    void singleCentreStudyIsReportedNotACrash() throws Exception {
+        Path study = demoCopy("study");
+        Files.writeString(study.resolve("manifest.csv"), "case,centre,reader,path\n"
+            + "case01,esterhaven,est1,esterhaven/est1/case01.nii.gz\ncase01,esterhaven,est2,esterhaven/est2/case01.nii.gz\n"
+            + "case02,esterhaven,est1,esterhaven/est1/case02.nii.gz\ncase02,esterhaven,est2,esterhaven/est2/case02.nii.gz\n");
+        Path out = tmp.resolve("out");
+        Run r = run(analyzeArgs(study, out, "--quiet"));
+        assertEquals(0, r.code(), r.out() + r.err());
+        assertTrue(Files.readString(out.resolve("report.html")).contains("No centre effect for lesion"));
+        OutputChecks.assertEveryFinalFileComplete(out);
+    }
+
     /** An existing non-empty folder is refused without --force, and the refusal changes nothing. */
     @Test
     void existingOutputFolderIsNotOverwrittenWithoutForce() throws Exception {

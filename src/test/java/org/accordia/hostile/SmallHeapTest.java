@@ -20,7 +20,8 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
 /**
- * The command line in a separate JVM with a 256 MiB heap, on volumes that would need far more:
+ * The command line ({@code inspect} and {@code analyze}) in a separate JVM with a 256 MiB heap, on
+ * volumes that would need far more:
  * each must end in the clean refusal (exit 2, one line on stderr naming the problem), never in an
  * OutOfMemoryError and its stack trace.
  */
@@ -95,6 +96,9 @@ class SmallHeapTest {
         bigNifti(study.resolve("c1/r2/case1.nii"), 1024, false);
         Child c = runJava("256m", tmp, "inspect", study.toString());
         assertCleanRefusal(c, "r1/case1.nii", "declares 4294967296 voxels");
+        Child a = runJava("256m", tmp, "analyze", study.toString(), "--out", tmp.resolve("out").toString());
+        assertCleanRefusal(a, "case1.nii: declares 4294967296 voxels (2048x2048x1024), more than the limit of 2147483631");
+        assertFalse(Files.exists(tmp.resolve("out")), "no output folder");
     }
 
     /**
@@ -110,5 +114,23 @@ class SmallHeapTest {
         Child c = runJava("256m", tmp, "inspect", study.toString());
         // the heap's exact size depends on the collector the JVM picks (256 MiB, or a little less)
         assertCleanRefusal(c, "r1/case1.nii.gz", "needs 320 MiB, more than the ", " MiB the Java heap may use");
+        Child a = runJava("256m", tmp, "analyze", study.toString(), "--out", tmp.resolve("out").toString());
+        assertCleanRefusal(a, "case1.nii.gz: the label volume of 335544320 voxels needs 320 MiB");
+        assertFalse(Files.exists(tmp.resolve("out")), "no output folder");
+    }
+
+    /**
+     * Two masks of 200 MiB each: one fits the 256 MiB heap, the case's two do not. The
+     * OutOfMemoryError is caught by the command line: one line, exit 2, nothing left behind.
+     */
+    @Test
+    void caseLargerThanTheHeapEndsInOneLine() throws Exception {
+        Path study = tmp.resolve("study");
+        bigNifti(study.resolve("c1/r1/case1.nii.gz"), 50, true);
+        Files.createDirectories(study.resolve("c1/r2"));
+        Files.copy(study.resolve("c1/r1/case1.nii.gz"), study.resolve("c1/r2/case1.nii.gz"));
+        Child a = runJava("256m", tmp, "analyze", study.toString(), "--out", tmp.resolve("out").toString(), "--threads", "1");
+        assertCleanRefusal(a, "accordia: out of memory (", "raise the heap with -Xmx");
+        assertFalse(Files.exists(tmp.resolve("out")), "no output folder");
     }
 }
