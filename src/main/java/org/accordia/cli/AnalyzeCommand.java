@@ -132,6 +132,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
         if (s.cases().isEmpty()) {
             throw new InputException(study, "the study has no case");
         }
+        StudyGate.requireAnalysable(s);
         CaseSource source = CaseSource.ofStudy(s, protocol, read.allowOutsideRoot());
         List<Path> inputs = new java.util.ArrayList<>(source.inputFiles());
         if (protocolFile != null) {
@@ -149,17 +150,28 @@ public final class AnalyzeCommand implements Callable<Integer> {
         // checksums before anything is written: they name the bytes the report was made from
         List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, s.root());
         OutputFolder folder = OutputFolder.prepare(out, force);
-        ConsensusFiles consensus = new ConsensusFiles(folder, AnalysisReport.PICTURES);
         PrintWriter err = spec.commandLine().getErr();
         long t0 = System.nanoTime();
         StudyResult result;
-        try (PrintStream progressStream = new PrintStream(new WriterStream(err), true, StandardCharsets.UTF_8);
-             Progress progress = Progress.create(s.cases().size(), quiet, progressStream)) {
-            result = StudyAnalysis.run(source, protocol, AnalysisOptions.defaults().withThreads(threads), consensus,
-                progress::step);
+        try {
+            ConsensusFiles consensus = new ConsensusFiles(folder, AnalysisReport.PICTURES);
+            try (PrintStream progressStream = new PrintStream(new WriterStream(err), true, StandardCharsets.UTF_8);
+                 Progress progress = Progress.create(s.cases().size(), quiet, progressStream)) {
+                try {
+                    result = StudyAnalysis.run(source, protocol, AnalysisOptions.defaults().withThreads(threads), consensus,
+                        progress::step);
+                } catch (Exception | Error e) {
+                    progress.abandon(); // the error's one line is all a failed run prints
+                    throw e;
+                }
+            }
+            AnalysisReport.write(folder, result, consensus.pictures(), source,
+                new AnalysisReport.RunInfo(VersionProvider.version(), checksums, protocolSource));
+        } catch (Exception | Error e) {
+            // stop at the first bad input and leave nothing of this run behind (no half set of outputs)
+            folder.discardThisRun();
+            throw e;
         }
-        AnalysisReport.write(folder, result, consensus.pictures(), source,
-            new AnalysisReport.RunInfo(VersionProvider.version(), checksums, protocolSource));
         double seconds = (System.nanoTime() - t0) / 1e9;
         PrintWriter w = spec.commandLine().getOut();
         for (LabelResult l : result.labels()) {

@@ -67,7 +67,19 @@ public final class Main implements Runnable {
             err.flush();
             return ExitCodes.INTERNAL;
         });
-        int code = cl.execute(filtered);
+        int code;
+        try {
+            code = cl.execute(filtered);
+        } catch (OutOfMemoryError e) {
+            // Not a bug and not a file's fault alone: the input is too large for the heap given.
+            err.println("accordia: out of memory (" + Runtime.getRuntime().maxMemory() / (1 << 20)
+                + " MiB Java heap): raise the heap with -Xmx (ACCORDIA_JAVA_OPTS), lower --threads,"
+                + " or refuse large volumes with --max-voxels");
+            if (debug) {
+                e.printStackTrace(err);
+            }
+            code = ExitCodes.INPUT;
+        }
         out.flush();
         err.flush();
         return code;

@@ -97,6 +97,21 @@ public final class Progress implements AutoCloseable {
         return done;
     }
 
+    /**
+     * Ends the display after a failure: a terminal bar is closed where it stopped, and no last
+     * plain line is printed, so that the error's one line is the only line a failed run adds.
+     * Further calls to {@link #close()} do nothing.
+     */
+    public synchronized void abandon() {
+        if (closed) {
+            return;
+        }
+        closed = true;
+        if (bar != null) {
+            bar.close();
+        }
+    }
+
     /** Ends the display: the bar is completed, or a last plain line is printed. */
     @Override
     public synchronized void close() {

@@ -116,6 +116,7 @@ final class Payload {
             throws InputException {
         long count = g.voxelCount();
         checkFits(file, layout, count);
+        checkHeap(file, count, count, "label");
         LabelBuilder out = new LabelBuilder((int) count);
         SampleType t = layout.type();
         ChunkSink sink;
@@ -174,6 +175,7 @@ final class Payload {
             throws InputException {
         long count = g.voxelCount();
         checkFits(file, layout, count);
+        checkHeap(file, count, 4 * count, "image");
         float[] out = new float[(int) count];
         SampleType t = layout.type();
         ChunkSink sink;
@@ -190,6 +192,25 @@ final class Payload {
         }
         stream(file, layout, count, sink, null);
         return new ImageVolume(g, out);
+    }
+
+    /**
+     * Refuses, before allocating, a volume whose array alone is larger than the most the Java heap
+     * may ever hold ({@link Runtime#maxMemory()}): such a read could only end in an
+     * OutOfMemoryError. Deterministic for a given heap size; a volume that fits the heap but not
+     * beside everything else in memory is left to the command line's out-of-memory message.
+     */
+    static void checkHeap(Path file, long count, long bytes, String what) throws InputException {
+        long max = Runtime.getRuntime().maxMemory();
+        if (max != Long.MAX_VALUE && bytes > max) {
+            throw new InputException(file, "the " + what + " volume of " + count + " voxels needs " + mib(bytes)
+                + " MiB, more than the " + mib(max) + " MiB the Java heap may use (raise the heap with -Xmx, "
+                + "e.g. ACCORDIA_JAVA_OPTS=-Xmx16g, or lower --max-voxels to refuse such volumes sooner)");
+        }
+    }
+
+    private static long mib(long bytes) {
+        return (bytes + (1 << 20) - 1) >> 20;
     }
 
     /** Samples per chunk: a full chunk, or the whole payload when smaller. */

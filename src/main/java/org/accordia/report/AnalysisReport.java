@@ -241,6 +241,12 @@ public final class AnalysisReport {
         h.section("Centre effects");
         for (LabelResult l : r.labels()) {
             List<GroupEffect> e = l.shift().centreEffects();
+            if (e.isEmpty()) {
+                // one centre (or none comparable): no centre has other centres to be compared with
+                h.paragraph("No centre effect for " + l.name() + ": a centre is compared with the other centres' "
+                    + "consensus, and this study has fewer than two centres with readers.");
+                continue;
+            }
             List<String> g = e.stream().map(GroupEffect::group).toList();
             h.figure(Charts.intervalPlot(g, e.stream().mapToDouble(GroupEffect::signedSurfaceMm).toArray(),
                     e.stream().mapToDouble(GroupEffect::signedSurfaceLoMm).toArray(),

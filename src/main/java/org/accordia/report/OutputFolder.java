@@ -64,9 +64,15 @@ public final class OutputFolder {
         "LPT1", "LPT2", "LPT3", "LPT4", "LPT5", "LPT6", "LPT7", "LPT8", "LPT9");
 
     private final Path dir;
+    /** Whether {@link #prepare} created the folder (then {@link #discardThisRun} may remove it). */
+    private final boolean created;
+    /** Final paths written by this instance, and sub-folders it created, for {@link #discardThisRun}. */
+    private final Set<Path> written = java.util.concurrent.ConcurrentHashMap.newKeySet();
+    private final Set<Path> createdFolders = java.util.concurrent.ConcurrentHashMap.newKeySet();
 
-    private OutputFolder(Path dir) {
+    private OutputFolder(Path dir, boolean created) {
         this.dir = dir;
+        this.created = created;
     }
 
     /**
@@ -81,6 +87,7 @@ public final class OutputFolder {
         if (Files.exists(abs) && !Files.isDirectory(abs)) {
             throw new InputException(dir, "the output path exists and is not a folder");
         }
+        boolean created = !Files.exists(abs);
         Files.createDirectories(abs);
         List<Path> temporaries = new ArrayList<>();
         List<Path> others = new ArrayList<>();
@@ -120,7 +127,48 @@ public final class OutputFolder {
             }
         }
         syncDirectory(abs);
-        return new OutputFolder(abs);
+        return new OutputFolder(abs, created);
+    }
+
+    /**
+     * Undoes this run after a failure: deletes every file this instance wrote, then the
+     * sub-folders it created once they are empty, then the folder itself when {@link #prepare}
+     * created it and it is empty. Files of earlier runs that this run did not replace stay.
+     * Best effort: a file that cannot be deleted is left (and named in the returned list).
+     *
+     * @return the paths that could not be removed (normally none)
+     */
+    public List<Path> discardThisRun() {
+        List<Path> left = new ArrayList<>();
+        for (Path p : written) {
+            try {
+                Files.deleteIfExists(p);
+            } catch (IOException e) {
+                left.add(p);
+            }
+        }
+        written.clear();
+        List<Path> folders = new ArrayList<>(createdFolders);
+        folders.sort((a, b) -> b.getNameCount() - a.getNameCount()); // deepest first
+        if (created) {
+            folders.add(dir);
+        }
+        for (Path f : folders) {
+            try (DirectoryStream<Path> entries = Files.newDirectoryStream(f)) {
+                if (entries.iterator().hasNext()) {
+                    continue;
+                }
+            } catch (IOException e) {
+                continue;
+            }
+            try {
+                Files.deleteIfExists(f);
+            } catch (IOException e) {
+                left.add(f);
+            }
+        }
+        createdFolders.clear();
+        return left;
     }
 
     /** The folder (absolute, normalised). */
@@ -142,6 +190,11 @@ public final class OutputFolder {
     public Path writeAtomically(String relativeName, IOConsumer<OutputStream> body) throws IOException {
         Path target = resolveChecked(relativeName);
         Path parent = target.getParent();
+        for (Path p = parent; !p.equals(dir) && p.startsWith(dir); p = p.getParent()) {
+            if (!Files.isDirectory(p)) {
+                createdFolders.add(p);
+            }
+        }
         Files.createDirectories(parent);
         if (!parent.toRealPath().startsWith(dir.toRealPath())) {
             throw new IllegalArgumentException("output name leaves the output folder: " + relativeName);
@@ -168,6 +221,7 @@ public final class OutputFolder {
                 channel.force(true);
             }
             Files.move(temporary, target, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+            written.add(target);
             done = true;
         } finally {
             if (!done) {

@@ -427,7 +427,7 @@ public final class StudyLoader {
             throw e;
         } catch (IOException | RuntimeException e) {
             // commons-csv reports malformed quoting and duplicate header names this way
-            throw new InputException(manifest, "malformed CSV: " + oneLine(e.getMessage()), e);
+            throw new InputException(manifest, "malformed CSV: " + oneLine(innermostMessage(e)), e);
         }
         if (masks.isEmpty()) {
             return new Study(root, manifest, List.of(), List.of(), List.of(), List.of(), Map.of(),
@@ -486,6 +486,20 @@ public final class StudyLoader {
                 + " (allow with --allow-outside-root)");
         }
         return p;
+    }
+
+    /**
+     * The message of the innermost cause that has one: commons-csv wraps its parse error in an
+     * UncheckedIOException whose own message starts with the exception's class name.
+     */
+    private static String innermostMessage(Throwable e) {
+        String m = e.getMessage();
+        for (Throwable c = e.getCause(); c != null && c != c.getCause(); c = c.getCause()) {
+            if (c.getMessage() != null) {
+                m = c.getMessage();
+            }
+        }
+        return m;
     }
 
     private static String oneLine(String s) {

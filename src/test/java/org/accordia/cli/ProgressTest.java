@@ -18,6 +18,19 @@ class ProgressTest {
     static final long S = 1_000_000_000L;
 
     @Test
+    void abandonedAfterAFailurePrintsNoLastLine() {
+        ByteArrayOutputStream buf = new ByteArrayOutputStream();
+        PrintStream err = new PrintStream(buf, true, StandardCharsets.UTF_8);
+        AtomicLong clock = new AtomicLong(1000 * S);
+        Progress p = Progress.create(3, false, err, false, clock::get);
+        clock.addAndGet(S / 2);
+        p.step();
+        p.abandon();
+        p.close(); // the try-with-resources close after abandon: nothing either
+        assertEquals("", buf.toString(StandardCharsets.UTF_8));
+    }
+
+    @Test
     void plainLinesAtMostEveryTwoSecondsAndAtTheEnd() {
         ByteArrayOutputStream buf = new ByteArrayOutputStream();
         PrintStream err = new PrintStream(buf, true, StandardCharsets.UTF_8);
