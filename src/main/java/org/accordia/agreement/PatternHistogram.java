@@ -135,7 +135,11 @@ public record PatternHistogram(int readers, long[] patterns, long[] counts) {
         return new PatternHistogram(m, Arrays.copyOf(p, n + 1), Arrays.copyOf(c, n + 1));
     }
 
-    private static long compress(long value, long keep) {
+    /**
+     * Packs the bits of {@code value} selected by {@code keep} into the low bits, in bit order:
+     * the pattern of a reader subset, numbered as in {@link #restrictTo(long)}.
+     */
+    public static long compress(long value, long keep) {
         long out = 0;
         int bit = 0;
         for (long k = keep; k != 0; k &= k - 1) {

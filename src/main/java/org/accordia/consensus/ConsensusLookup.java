@@ -2,6 +2,7 @@ package org.accordia.consensus;
 
 import java.util.HashMap;
 import java.util.Map;
+import org.accordia.agreement.PatternHistogram;
 
 /**
  * Maps a FULL decision pattern (bit j = reader j among all readers) to the thresholded STAPLE
@@ -28,14 +29,14 @@ final class ConsensusLookup {
         if (dense != null) {
             int k = (int) fullPattern;
             if (dense[k] == 0) {
-                dense[k] = (byte) (result.patternInConsensus(Patterns.compress(fullPattern, keep)) ? 2 : 1);
+                dense[k] = (byte) (result.patternInConsensus(PatternHistogram.compress(fullPattern, keep)) ? 2 : 1);
             }
             return dense[k] == 2;
         }
-        return memo.computeIfAbsent(fullPattern, p -> result.patternInConsensus(Patterns.compress(p, keep)));
+        return memo.computeIfAbsent(fullPattern, p -> result.patternInConsensus(PatternHistogram.compress(p, keep)));
     }
 
     double weight(long fullPattern) {
-        return result.weightOfPattern(Patterns.compress(fullPattern, keep));
+        return result.weightOfPattern(PatternHistogram.compress(fullPattern, keep));
     }
 }

@@ -9,20 +9,6 @@ final class Patterns {
     private Patterns() {
     }
 
-    /** Packs the bits of {@code value} selected by {@code keep} into the low bits, in bit order. */
-    static long compress(long value, long keep) {
-        long out = 0;
-        int bit = 0;
-        for (long k = keep; k != 0; k &= k - 1) {
-            int j = Long.numberOfTrailingZeros(k);
-            if ((value >>> j & 1L) != 0) {
-                out |= 1L << bit;
-            }
-            bit++;
-        }
-        return out;
-    }
-
     /** Membership table by label value for the structure's label values (length ≥ 256). */
     static boolean[] lut(int[] structureLabels) {
         int max = 255;

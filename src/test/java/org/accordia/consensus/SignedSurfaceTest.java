@@ -174,7 +174,7 @@ class SignedSurfaceTest {
             StapleResult s = refs.staple(row.reference(), j);
             boolean[] cons = new boolean[d[0].length];
             for (int i = 0; i < cons.length; i++) {
-                cons[i] = s.weightOfPattern(Patterns.compress(Fixtures.pattern(d, i), keep)) >= 0.5;
+                cons[i] = s.weightOfPattern(org.accordia.agreement.PatternHistogram.compress(Fixtures.pattern(d, i), keep)) >= 0.5;
             }
             assertEquals(bruteForce(d[j], cons, nx, ny, nz, sp), row.signedSurfaceMm(), 1e-9,
                 row.reader() + " " + row.reference());
