@@ -45,6 +45,11 @@ public final class ShiftAnalysis {
             rows.add(CentreRow.of(labelName, e, decision.centreFlags().getOrDefault(e.group(), VerdictRules.FLAG_NONE)));
         }
         List<String> notes = new ArrayList<>(partition.notes());
+        if (vc != null) {
+            // optimiser fallbacks and failures are part of what the reader of the summary must know
+            vc.notes().stream().filter(n -> n.startsWith("REML") || n.contains("failed"))
+                    .forEach(n -> notes.add("variance components: " + n));
+        }
         LabelShiftSummary.Shift shift = new LabelShiftSummary.Shift(in.distanceName(),
                 Numbers.orNull(partition.betweenShare()), Numbers.orNull(partition.sigma2Between()),
                 Numbers.orNull(partition.sigma2Within()), Numbers.orNull(partition.n0()),
