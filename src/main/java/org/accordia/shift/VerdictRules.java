@@ -112,14 +112,17 @@ public final class VerdictRules {
         List<String> pointLarge = new ArrayList<>();
         Map<String, GroupEffect> offsetOf = new LinkedHashMap<>();
         offsets.forEach(o -> offsetOf.put(o.group(), o));
-        boolean pair = centres.size() == 2;
-        boolean centred = centres.size() >= 3;
+        // centres with a usable effect; two of them are a pair even when a third centre has no value
+        List<GroupEffect> usable = centres.stream()
+                .filter(e -> Double.isFinite(e.signedSurfaceMm()) || Double.isFinite(e.volumeRatio())).toList();
+        boolean pair = usable.size() == 2;
+        boolean centred = usable.size() >= 3;
         List<GroupEffect> judged = new ArrayList<>();
         if (pair) {
             // two centres are exact mirrors: judge the pair once, through the first centre by name
-            judged.add(centres.stream().min(java.util.Comparator.comparing(GroupEffect::group)).orElseThrow());
+            judged.add(usable.stream().min(java.util.Comparator.comparing(GroupEffect::group)).orElseThrow());
         } else if (centred) {
-            for (GroupEffect e : centres) {
+            for (GroupEffect e : usable) {
                 GroupEffect o = offsetOf.get(e.group());
                 if (o == null) {
                     throw new IllegalArgumentException("no median-centred offset for centre " + e.group());
@@ -144,7 +147,7 @@ public final class VerdictRules {
             String words;
             List<String> who;
             if (pair) {
-                String other = centres.stream().map(GroupEffect::group).filter(g -> !g.equals(e.group()))
+                String other = usable.stream().map(GroupEffect::group).filter(g -> !g.equals(e.group()))
                         .findFirst().orElseThrow();
                 who = List.of(e.group(), other);
                 words = "Centres " + e.group() + " and " + other + " differ from each other: " + e.group() + " "
@@ -251,7 +254,7 @@ public final class VerdictRules {
         }
         flagged.sort(null);
         Map<String, String> sortedFlags = new LinkedHashMap<>();
-        centres.stream().map(GroupEffect::group).sorted().forEach(g -> sortedFlags.put(g, flags.get(g)));
+        centres.stream().map(GroupEffect::group).sorted().forEach(g -> sortedFlags.put(g, flags.getOrDefault(g, FLAG_NONE)));
         return new Decision(verdict, rule, reasons, flagged, sortedFlags);
     }
 

@@ -144,4 +144,18 @@ class VerdictRulesTest {
             assertTrue(d.reasons().get(0).contains("cannot tell which centre"), d.reasons().get(0));
         }
     }
+
+    /** Three centres of which one has no usable effect: the other two are judged as a pair. */
+    @org.junit.jupiter.api.Test
+    void twoUsableCentresOfThreeAreAPair() {
+        GroupEffect empty = new GroupEffect("north", "north", 3, 0, Double.NaN, Double.NaN, Double.NaN, Double.NaN,
+                Double.NaN, Double.NaN);
+        List<GroupEffect> raw = List.of(
+                new GroupEffect("east", "east", 3, 12, 1.4, 1.1, 1.7, 1.43, 1.33, 1.54), empty,
+                new GroupEffect("west", "west", 3, 12, -1.4, -1.7, -1.1, 0.7, 0.65, 0.75));
+        VerdictRules.Decision d = VerdictRules.decide(test(0.004, 0.0036), raw, raw, 0, 20, List.of(), S);
+        assertEquals("centre-pair-differs", d.rule());
+        assertEquals(List.of("east", "west"), d.flaggedCentres());
+        assertEquals("none", d.centreFlags().get("north"));
+    }
 }
