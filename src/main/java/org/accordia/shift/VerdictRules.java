@@ -162,7 +162,8 @@ public final class VerdictRules {
                 who = List.of(e.group());
                 words = "Centre " + e.group() + " " + e.describe("the other centres");
             }
-            String which = surface && volume ? "surface and volume" : surface ? "surface" : "volume";
+            String which = surface && volume ? "surface and volume" : surface ? "surface"
+                    : "volume (with the surface interval on the same side of 0)";
             if (significant && (surface || volume)) {
                 for (String g : who) {
                     flagged.add(g);
