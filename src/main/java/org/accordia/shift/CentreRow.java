@@ -4,8 +4,10 @@ package org.accordia.shift;
 /**
  * One row of {@code centres.csv}: a centre's effect against the other centres' consensus for one
  * label. Distances in mm; volume ratio unitless (geometric mean); intervals are 95 % case-bootstrap
- * percentile intervals. {@code flag} is {@code shift}, {@code uncertain} or {@code none}
- * (see {@link VerdictRules}).
+ * percentile intervals. {@code flag} is {@code shift}, {@code differ} (both centres of a
+ * two-centre study that differ from each other), {@code uncertain} or {@code none} (see
+ * {@link VerdictRules}); with three or more centres the flag comes from the median-centred offsets,
+ * not from these raw columns.
  */
 public record CentreRow(
         String label,

@@ -4,7 +4,9 @@ import java.util.List;
 
 /**
  * The full result for one label: the JSON summary, the centres.csv rows, and the underlying
- * statistics for the HTML report.
+ * statistics for the HTML report. {@code centreEffects} are the raw effects against the other
+ * centres' consensus (the centres.csv columns); {@code centreOffsets} the median-centred offsets the
+ * flag rule judges when there are at least three centres ({@link EffectEstimator#centreOffsets}).
  */
 public record LabelShiftReport(
         LabelShiftSummary summary,
@@ -14,11 +16,13 @@ public record LabelShiftReport(
         VarianceComponents.Result varianceComponents,
         List<GroupEffect> centreEffects,
         List<GroupEffect> readerEffects,
-        Icc.Result icc) {
+        Icc.Result icc,
+        List<GroupEffect> centreOffsets) {
 
     public LabelShiftReport {
         centreRows = List.copyOf(centreRows);
         centreEffects = List.copyOf(centreEffects);
         readerEffects = List.copyOf(readerEffects);
+        centreOffsets = List.copyOf(centreOffsets);
     }
 }

@@ -12,6 +12,8 @@ import org.apache.commons.math3.optim.SimpleBounds;
 import org.apache.commons.math3.optim.nonlinear.scalar.GoalType;
 import org.apache.commons.math3.optim.nonlinear.scalar.ObjectiveFunction;
 import org.apache.commons.math3.optim.nonlinear.scalar.noderiv.BOBYQAOptimizer;
+import org.apache.commons.math3.optim.nonlinear.scalar.noderiv.NelderMeadSimplex;
+import org.apache.commons.math3.optim.nonlinear.scalar.noderiv.SimplexOptimizer;
 import org.apache.commons.math3.optim.univariate.BrentOptimizer;
 import org.apache.commons.math3.optim.univariate.SearchInterval;
 import org.apache.commons.math3.optim.univariate.UnivariateObjectiveFunction;
@@ -34,6 +36,14 @@ import org.apache.commons.math3.random.Well19937c;
  * <p>Optimisation over θ in the box [0, 10³]^K: Brent's method on θ/(1 + θ) for one factor, BOBYQA
  * (Powell 2009) from three starts (θ = 1, 0.25, 4) for several; afterwards each small θ_k is set to
  * exactly 0 when that does not increase the criterion, so boundary estimates are exact zeros.
+ *
+ * <p>Robustness: BOBYQA can stop with an exception ("trust region step has failed to reduce Q")
+ * on some data sets (seen on a simulated null study whose optimum lies on the boundary). Such a
+ * start is then continued with derivative-free fallbacks that cannot fail that way: Nelder–Mead
+ * (Nelder &amp; Mead 1965) on θ = u², followed by a coordinate-wise Brent search over the bounded
+ * θ; the best criterion over all starts and methods is kept and each fallback is listed in
+ * {@link RemlResult#notes()}. When no attempt yields a finite criterion the result has
+ * {@code converged = false} and NaN estimates; the fit never throws because the optimiser failed.
  *
  * <p>Degenerate input: NaN responses or negative level indices are errors; X must have full column
  * rank; n must exceed p. Levels that never occur are allowed (their effect is 0).
@@ -159,18 +169,31 @@ public final class RemlFit {
     public RemlResult fit(double[] y, double[] startTheta) {
         Response r = response(y);
         int[] evaluations = new int[1];
-        double[] best;
-        double bestValue;
+        List<String> notes = new ArrayList<>();
+        java.util.function.ToDoubleFunction<double[]> objective = t -> {
+            evaluations[0]++;
+            return criterion(r, t);
+        };
+        double[] best = null;
+        double bestValue = Double.POSITIVE_INFINITY;
         if (factors == 1) {
-            BrentOptimizer brent = new BrentOptimizer(1e-12, 1e-14);
-            UnivariatePointValuePair opt = brent.optimize(new MaxEval(10_000), GoalType.MINIMIZE,
-                    new SearchInterval(0, 1 - 1e-9, 0.5),
-                    new UnivariateObjectiveFunction(t -> {
-                        evaluations[0]++;
-                        return criterion(r, new double[] {t / (1 - t)});
-                    }));
-            best = new double[] {opt.getPoint() / (1 - opt.getPoint())};
-            bestValue = opt.getValue();
+            try {
+                BrentOptimizer brent = new BrentOptimizer(1e-12, 1e-14);
+                UnivariatePointValuePair opt = brent.optimize(new MaxEval(10_000), GoalType.MINIMIZE,
+                        new SearchInterval(0, 1 - 1e-9, 0.5),
+                        new UnivariateObjectiveFunction(t -> objective.applyAsDouble(new double[] {t / (1 - t)})));
+                if (Double.isFinite(opt.getValue())) {
+                    best = new double[] {opt.getPoint() / (1 - opt.getPoint())};
+                    bestValue = opt.getValue();
+                }
+            } catch (IllegalStateException | ArithmeticException e) {
+                notes.add("Brent's method failed (" + e.getMessage() + "); a grid search over theta was used instead");
+                double[] fallback = coordinateSearch(objective, new double[] {1.0});
+                if (fallback != null) {
+                    best = fallback;
+                    bestValue = objective.applyAsDouble(best);
+                }
+            }
         } else {
             List<double[]> starts = new ArrayList<>();
             if (startTheta != null) {
@@ -186,26 +209,43 @@ public final class RemlFit {
                     starts.add(start);
                 }
             }
-            best = null;
-            bestValue = Double.POSITIVE_INFINITY;
             double[] lower = new double[factors];
             double[] upper = new double[factors];
             Arrays.fill(upper, THETA_MAX);
             for (double[] start : starts) {
-                // refits from a given start (bootstrap) stop earlier: 1e-7 in θ is far below resampling noise
-                BOBYQAOptimizer bobyqa = new BOBYQAOptimizer(2 * factors + 1, startTheta == null ? 0.2 : 0.1,
-                        startTheta == null ? 1e-10 : 1e-7);
-                PointValuePair opt = bobyqa.optimize(new MaxEval(50_000), GoalType.MINIMIZE,
-                        new InitialGuess(start), new SimpleBounds(lower, upper),
-                        new ObjectiveFunction(t -> {
-                            evaluations[0]++;
-                            return criterion(r, t);
-                        }));
-                if (opt.getValue() < bestValue) {
-                    bestValue = opt.getValue();
-                    best = opt.getPoint().clone();
+                double[] point;
+                try {
+                    // refits from a given start (bootstrap) stop earlier: 1e-7 in θ is far below resampling noise
+                    BOBYQAOptimizer bobyqa = new BOBYQAOptimizer(2 * factors + 1, startTheta == null ? 0.2 : 0.1,
+                            startTheta == null ? 1e-10 : 1e-7);
+                    point = bobyqa.optimize(new MaxEval(50_000), GoalType.MINIMIZE,
+                            new InitialGuess(start), new SimpleBounds(lower, upper),
+                            new ObjectiveFunction(objective::applyAsDouble)).getPoint();
+                } catch (IllegalStateException | ArithmeticException e) {
+                    // BOBYQA can stop with "trust region step has failed to reduce Q" on nearly flat or
+                    // boundary optima; the fit must go on: derivative-free fallbacks from the same start
+                    notes.add(String.format(java.util.Locale.ROOT,
+                            "BOBYQA failed from start theta = %s (%s); Nelder-Mead and a coordinate-wise Brent "
+                                    + "search were used from that start", Arrays.toString(start), e.getMessage()));
+                    point = fallback(objective, start);
+                }
+                if (point == null) {
+                    continue;
+                }
+                double value = objective.applyAsDouble(point);
+                if (value < bestValue) {
+                    bestValue = value;
+                    best = point.clone();
                 }
             }
+        }
+        if (best == null) {
+            notes.add("every optimisation attempt failed; the variance components are undefined");
+            double[] nan = new double[factors];
+            Arrays.fill(nan, Double.NaN);
+            double[] beta = new double[p];
+            Arrays.fill(beta, Double.NaN);
+            return new RemlResult(names, nan, Double.NaN, nan, beta, Double.NaN, n, evaluations[0], false, notes);
         }
         // exact zeros on the boundary
         double atZero = criterion(r, zero(best, -1));
@@ -224,7 +264,102 @@ public final class RemlFit {
             best = zero(best, -1);
             bestValue = atZero;
         }
-        return finish(r, best, evaluations[0]);
+        return finish(r, best, evaluations[0], notes);
+    }
+
+    /**
+     * Derivative-free fallback from one start: Nelder–Mead (Nelder &amp; Mead 1965; commons-math
+     * {@code SimplexOptimizer}) on u with θ = min(u², 10³), so the box needs no constraint handling,
+     * then cycles of a coordinate-wise Brent search (each θ_k over [0, 10³] via θ/(1 + θ)) from the
+     * better of the start and the Nelder–Mead point. Returns the best point found, or null when no
+     * finite criterion value was seen.
+     */
+    private double[] fallback(java.util.function.ToDoubleFunction<double[]> objective, double[] start) {
+        double[] best = null;
+        double bestValue = Double.POSITIVE_INFINITY;
+        double startValue = safe(objective, start);
+        if (Double.isFinite(startValue)) {
+            best = start.clone();
+            bestValue = startValue;
+        }
+        try {
+            double[] u0 = new double[factors];
+            for (int k = 0; k < factors; k++) {
+                u0[k] = Math.sqrt(start[k]);
+            }
+            SimplexOptimizer simplex = new SimplexOptimizer(1e-12, 1e-14);
+            PointValuePair opt = simplex.optimize(new MaxEval(20_000), GoalType.MINIMIZE, new InitialGuess(u0),
+                    new NelderMeadSimplex(factors, 0.2),
+                    new ObjectiveFunction(u -> safe(objective, fromU(u))));
+            double[] t = fromU(opt.getPoint());
+            double v = safe(objective, t);
+            if (v < bestValue) {
+                best = t;
+                bestValue = v;
+            }
+        } catch (IllegalStateException | ArithmeticException e) {
+            // Nelder–Mead ran out of evaluations or failed: the coordinate search below still runs
+        }
+        double[] polished = coordinateSearch(objective, best != null ? best : start);
+        if (polished != null && safe(objective, polished) < bestValue) {
+            best = polished;
+        }
+        return best;
+    }
+
+    private static double[] fromU(double[] u) {
+        double[] t = new double[u.length];
+        for (int k = 0; k < u.length; k++) {
+            t[k] = Math.min(u[k] * u[k], THETA_MAX);
+        }
+        return t;
+    }
+
+    /** The criterion, or +∞ when it cannot be evaluated (so a search never stops on it). */
+    private static double safe(java.util.function.ToDoubleFunction<double[]> objective, double[] theta) {
+        try {
+            double v = objective.applyAsDouble(theta);
+            return Double.isNaN(v) ? Double.POSITIVE_INFINITY : v;
+        } catch (ArithmeticException e) {
+            return Double.POSITIVE_INFINITY;
+        }
+    }
+
+    /**
+     * Cyclic coordinate descent: each θ_k in turn minimised by Brent's method on θ/(1 + θ) ∈ [0, 1)
+     * with the others fixed, until a full cycle improves the criterion by less than 1e-10 (at most
+     * 200 cycles). Every step keeps the best value, so the criterion never increases. Null when no
+     * finite value was found.
+     */
+    private double[] coordinateSearch(java.util.function.ToDoubleFunction<double[]> objective, double[] start) {
+        double[] t = start.clone();
+        double value = safe(objective, t);
+        for (int cycle = 0; cycle < 200; cycle++) {
+            double before = value;
+            for (int k = 0; k < factors; k++) {
+                final int kk = k;
+                final double[] base = t.clone();
+                try {
+                    UnivariatePointValuePair opt = new BrentOptimizer(1e-10, 1e-14).optimize(new MaxEval(2_000),
+                            GoalType.MINIMIZE, new SearchInterval(0, 1 - 1e-6, base[k] / (1 + base[k])),
+                            new UnivariateObjectiveFunction(s -> {
+                                double[] trial = base.clone();
+                                trial[kk] = Math.min(s / (1 - s), THETA_MAX);
+                                return safe(objective, trial);
+                            }));
+                    if (opt.getValue() < value) {
+                        t[k] = Math.min(opt.getPoint() / (1 - opt.getPoint()), THETA_MAX);
+                        value = opt.getValue();
+                    }
+                } catch (IllegalStateException | ArithmeticException e) {
+                    // keep the current θ_k
+                }
+            }
+            if (!(before - value > 1e-10 * Math.max(1, Math.abs(value)))) {
+                break;
+            }
+        }
+        return Double.isFinite(value) ? t : null;
     }
 
     /** The REML criterion (−2 REML log-likelihood) at given relative standard deviations. */
@@ -395,7 +530,7 @@ public final class RemlFit {
         return logDet + dof * (1 + Math.log(2 * Math.PI * r2 / dof));
     }
 
-    private RemlResult finish(Response r, double[] theta, int evaluations) {
+    private RemlResult finish(Response r, double[] theta, int evaluations, List<String> notes) {
         double[] lambda = lambda(theta);
         double[][] l = factor(lambda);
         double[] w = forward(l, rhs(r, lambda));
@@ -418,6 +553,6 @@ public final class RemlFit {
             variances[k] = theta[k] * theta[k] * sigma2;
         }
         double[] beta = Arrays.copyOfRange(sol, q, m);
-        return new RemlResult(names, variances, sigma2, theta, beta, criterion(r, theta), n, evaluations);
+        return new RemlResult(names, variances, sigma2, theta, beta, criterion(r, theta), n, evaluations, true, notes);
     }
 }

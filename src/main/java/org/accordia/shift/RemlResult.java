@@ -13,6 +13,8 @@ import java.util.List;
  * @param remlCriterion     −2 × REML log-likelihood, same constant as lme4's REML criterion
  * @param observations      n
  * @param evaluations       objective evaluations used
+ * @param converged         false when every optimisation attempt failed (then every number is NaN)
+ * @param notes             optimiser fallbacks used, in words (empty when BOBYQA/Brent succeeded)
  */
 public record RemlResult(
         List<String> names,
@@ -22,9 +24,12 @@ public record RemlResult(
         double[] beta,
         double remlCriterion,
         int observations,
-        int evaluations) {
+        int evaluations,
+        boolean converged,
+        List<String> notes) {
 
     public RemlResult {
+        notes = List.copyOf(notes);
         names = List.copyOf(names);
         variances = variances.clone();
         theta = theta.clone();

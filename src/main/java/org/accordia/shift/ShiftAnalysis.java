@@ -26,6 +26,8 @@ public final class ShiftAnalysis {
         PermutationResult test = PermutationTest.test(in.distances(), in.readerCentre(), s.alpha(), s.permutations(),
                 s.exactLimit(), base);
         List<GroupEffect> centres = EffectEstimator.byCentre(in.centreMeasures(), s.bootstrapResamples(), base + 1);
+        // same seed as byCentre: the offsets' bootstrap uses the very same case resamples
+        List<GroupEffect> offsets = EffectEstimator.centreOffsets(in.centreMeasures(), s.bootstrapResamples(), base + 1);
         List<GroupEffect> readers = EffectEstimator.byReader(in.readerMeasures(), s.bootstrapResamples(), base + 1);
         VarianceComponents.Result vc = in.varianceMeasures().isEmpty() ? null
                 : VarianceComponents.fit(in.varianceMeasures(), s.varianceResamples(), s.centreTestResamples(), base + 2);
@@ -36,7 +38,7 @@ public final class ShiftAnalysis {
         TreeSet<String> allCases = new TreeSet<>();
         in.caseSummaries().forEach(c -> allCases.add(c.caseId()));
         in.distances().forEach(c -> allCases.add(c.caseId()));
-        VerdictRules.Decision decision = VerdictRules.decide(test, centres, adjudicate.size(), allCases.size(),
+        VerdictRules.Decision decision = VerdictRules.decide(test, centres, offsets, adjudicate.size(), allCases.size(),
                 recalibrate, s);
 
         List<CentreRow> rows = new ArrayList<>();
@@ -45,6 +47,11 @@ public final class ShiftAnalysis {
             rows.add(CentreRow.of(labelName, e, decision.centreFlags().getOrDefault(e.group(), VerdictRules.FLAG_NONE)));
         }
         List<String> notes = new ArrayList<>(partition.notes());
+        if (vc != null) {
+            // optimiser fallbacks and failures are part of what the reader of the summary must know
+            vc.notes().stream().filter(n -> n.startsWith("REML") || n.contains("failed"))
+                    .forEach(n -> notes.add("variance components: " + n));
+        }
         LabelShiftSummary.Shift shift = new LabelShiftSummary.Shift(in.distanceName(),
                 Numbers.orNull(partition.betweenShare()), Numbers.orNull(partition.sigma2Between()),
                 Numbers.orNull(partition.sigma2Within()), Numbers.orNull(partition.n0()),
@@ -76,6 +83,6 @@ public final class ShiftAnalysis {
         LabelShiftSummary summary = new LabelShiftSummary(in.label(), in.name(), shift,
                 vc == null ? null : in.varianceMeasureName(), components, intervalMethod, centreTest, iccForms,
                 decision.verdict(), decision.rule(), reasons, adjudicate, recalibrate);
-        return new LabelShiftReport(summary, rows, partition, test, vc, centres, readers, icc);
+        return new LabelShiftReport(summary, rows, partition, test, vc, centres, readers, icc, offsets);
     }
 }

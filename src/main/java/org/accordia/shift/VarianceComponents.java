@@ -95,13 +95,39 @@ public final class VarianceComponents {
             notes.add("no grouping factor has two levels; no variance components");
             return new Result(List.of(), "none", null, used.size(), notes);
         }
+        try {
+            return fitModel(y, names, factors, resamples, testResamples, seed, used.size(), notes);
+        } catch (IllegalStateException | ArithmeticException e) {
+            // last line of defence: an optimiser failure must never end the analysis
+            notes.add("the REML fit failed (" + e.getMessage() + "); the variance components are undefined");
+            return undefined(names, used.size(), notes);
+        }
+    }
+
+    private static Result undefined(List<String> names, int observations, List<String> notes) {
+        List<Component> components = new ArrayList<>();
+        for (String name : names) {
+            components.add(new Component(name, Double.NaN, Double.NaN, Double.NaN));
+        }
+        components.add(new Component(RESIDUAL, Double.NaN, Double.NaN, Double.NaN));
+        return new Result(components, "none", null, observations, notes);
+    }
+
+    private static Result fitModel(double[] y, List<String> names, List<int[]> factors, int resamples,
+            int testResamples, long seed, int observations, List<String> notes) {
         RemlFit model = new RemlFit(names, factors, null);
         RemlResult fit = model.fit(y);
+        fit.notes().forEach(n -> notes.add("REML fit: " + n));
+        if (!fit.converged()) {
+            return undefined(names, observations, notes);
+        }
         int k = names.size();
+        int failedRefits = 0;
         double[][] boot = new double[k + 1][resamples];
         Random random = RemlFit.random(seed);
         for (int b = 0; b < resamples; b++) {
             RemlResult refit = model.fit(model.simulate(fit, random), fit.theta());
+            failedRefits += refit.converged() ? 0 : 1;
             double[] v = refit.variances();
             for (int j = 0; j < k; j++) {
                 boot[j][b] = v[j];
@@ -114,13 +140,15 @@ public final class VarianceComponents {
             double e = j < k ? est[j] : fit.residualVariance();
             double lo = Double.NaN;
             double hi = Double.NaN;
-            if (resamples > 0) {
-                double[] sorted = boot[j].clone();
-                Arrays.sort(sorted);
+            double[] sorted = Arrays.stream(boot[j]).filter(Double::isFinite).sorted().toArray();
+            if (sorted.length > 0) {
                 lo = EffectEstimator.quantile(sorted, 0.025);
                 hi = EffectEstimator.quantile(sorted, 0.975);
             }
             components.add(new Component(j < k ? names.get(j) : RESIDUAL, e, lo, hi));
+        }
+        if (failedRefits > 0) {
+            notes.add(failedRefits + " of " + resamples + " bootstrap refits failed and were left out of the intervals");
         }
         String intervalMethod = resamples > 0
                 ? "parametric bootstrap percentile, " + resamples + " resamples"
@@ -134,20 +162,34 @@ public final class VarianceComponents {
             reducedFactors.remove(centreIndex);
             RemlFit reduced = new RemlFit(reducedNames, reducedFactors, null);
             RemlResult fit0 = reduced.fit(y);
+            fit0.notes().forEach(n -> notes.add("REML fit without the centre term: " + n));
+            if (!fit0.converged()) {
+                notes.add("the fit without the centre term failed; no test of sigma2_centre = 0");
+                return new Result(components, intervalMethod, null, observations, notes);
+            }
             double lrt = Math.max(0, fit0.remlCriterion() - fit.remlCriterion());
             if (testResamples > 0) {
                 Random nullRandom = RemlFit.random(seed ^ 0x5DEECE66DL);
                 int exceed = 0;
+                int used = 0;
                 for (int b = 0; b < testResamples; b++) {
                     double[] ys = reduced.simulate(fit0, nullRandom);
-                    double full = Math.min(model.fit(ys, fit.theta()).remlCriterion(),
+                    double full = finiteMin(model.fit(ys, fit.theta()).remlCriterion(),
                             model.fit(ys, withCentre(reducedTheta(fit0.theta(), centreIndex))).remlCriterion());
                     double stat = Math.max(0, reduced.fit(ys, fit0.theta()).remlCriterion() - full);
+                    if (Double.isNaN(stat) || Double.isNaN(full)) {
+                        continue; // both full-model refits or the null refit failed: left out
+                    }
+                    used++;
                     if (stat >= lrt - 1e-9 * Math.max(1, lrt)) {
                         exceed++;
                     }
                 }
-                test = new CentreTest(lrt, (1.0 + exceed) / (1.0 + testResamples),
+                if (used < testResamples) {
+                    notes.add((testResamples - used) + " of " + testResamples
+                            + " likelihood-ratio resamples failed to fit and were left out");
+                }
+                test = new CentreTest(lrt, (1.0 + exceed) / (1.0 + used),
                         "parametric bootstrap of the REML likelihood-ratio statistic under the null, "
                                 + testResamples + " resamples",
                         testResamples);
@@ -161,7 +203,12 @@ public final class VarianceComponents {
         } else if (centreIndex >= 0) {
             notes.add("the centre term is the only grouping factor; no test of sigma2_centre = 0");
         }
-        return new Result(components, intervalMethod, test, used.size(), notes);
+        return new Result(components, intervalMethod, test, observations, notes);
+    }
+
+    /** The smaller finite value (NaN stands for a failed fit); NaN when both are NaN. */
+    private static double finiteMin(double a, double b) {
+        return Double.isNaN(a) ? b : Double.isNaN(b) ? a : Math.min(a, b);
     }
 
     /** The null fit's θ with a slot for the centre term re-inserted (set to 0). */

@@ -76,4 +76,80 @@ class EffectEstimatorTest {
         assertTrue(inside.surfaceBeyond(1.0));
         assertTrue(inside.volumeBeyond(5));
     }
+
+    /**
+     * The median-centred offsets undo the one-vs-rest mirror. Worked example of our own (linear
+     * model of docs/shift.md section 5): offsets o = (1.5, 0, 0) mm give effects against the other
+     * centres' mean e = (1.5, -0.75, -0.75); a = e * 2/3 = (1.0, -0.5, -0.5); median -0.5;
+     * r = (1.5, 0, 0). Four centres with o = (2, 0, 0, 0): e = (2, -2/3, -2/3, -2/3), a = e * 3/4 =
+     * (1.5, -0.5, -0.5, -0.5), median -0.5, r = (2, 0, 0, 0). Two centres (also when a third has no value): e = (d, -d),
+     * a = (d/2, -d/2), median 0, r = (d/2, -d/2): the pair stays symmetric.
+     */
+    @org.junit.jupiter.params.ParameterizedTest(name = "{0}")
+    @org.junit.jupiter.params.provider.CsvSource(delimiter = '|', value = {
+        "three centres, one shifted | 1.5 -0.75 -0.75      | 1.5 0 0",
+        "four centres, one shifted  | 2 -0.6666666666666666 -0.6666666666666666 -0.6666666666666666 | 2 0 0 0",
+        "two centres                | 1.2 -1.2             | 0.6 -0.6",
+        "all alike                  | 0 0 0                | 0 0 0",
+        "one centre missing         | 1.5 NaN -1.5         | 0.75 NaN -0.75",
+    })
+    void medianCentringUndoesTheMirror(String description, String effects, String expected) {
+        double[] e = java.util.Arrays.stream(effects.trim().split(" +")).mapToDouble(Double::parseDouble).toArray();
+        double[] r = java.util.Arrays.stream(expected.trim().split(" +")).mapToDouble(Double::parseDouble).toArray();
+        EffectEstimator.medianCentre(e);
+        for (int i = 0; i < e.length; i++) {
+            assertEquals(r[i], e[i], 1e-12, description + " centre " + i);
+        }
+    }
+
+    @Test
+    void offsetsHaveTheirOwnIntervalsAndLeaveTheRawEffectsAlone() {
+        // three centres; readers of "east" draw 1.5 mm wider. Per case and reader: radius offset +
+        // noise; raw effect = own radius - mean radius of the other centres' readers (the linear
+        // model of the consensus), volume ratio = cube of the radius ratio.
+        Random random = new Random(5);
+        List<ReaderCaseMeasure> rows = new ArrayList<>();
+        String[] centres = {"east", "north", "south"};
+        for (int k = 0; k < 12; k++) {
+            double radius = 8 + 2 * random.nextDouble();
+            double[][] r = new double[3][3];
+            for (int c = 0; c < 3; c++) {
+                for (int j = 0; j < 3; j++) {
+                    r[c][j] = radius + (c == 0 ? 1.5 : 0) + 0.3 * random.nextGaussian();
+                }
+            }
+            for (int c = 0; c < 3; c++) {
+                double others = 0;
+                for (int o = 0; o < 3; o++) {
+                    for (int j = 0; o != c && j < 3; j++) {
+                        others += r[o][j] / 6;
+                    }
+                }
+                for (int j = 0; j < 3; j++) {
+                    rows.add(new ReaderCaseMeasure(centres[c] + j, centres[c], "k" + k, r[c][j] - others,
+                            Math.pow(r[c][j] / others, 3)));
+                }
+            }
+        }
+        List<GroupEffect> raw = EffectEstimator.byCentre(rows, 1000, 11);
+        List<GroupEffect> off = EffectEstimator.centreOffsets(rows, 1000, 11);
+        assertEquals(List.of("east", "north", "south"), off.stream().map(GroupEffect::group).toList());
+        // raw: the mirror makes north and south look about 0.75 mm inside and ~25 % smaller
+        assertTrue(raw.get(1).signedSurfaceHiMm() < -0.4 && raw.get(2).signedSurfaceHiMm() < -0.4, raw.toString());
+        assertTrue(raw.get(1).volumeRatioHi() < 0.85, "the old volume rule would flag north: " + raw.get(1));
+        // offsets: east keeps about 1.5 mm, north and south are near 0 with intervals covering 0
+        assertEquals(1.5, off.get(0).signedSurfaceMm(), 0.3);
+        assertTrue(off.get(0).signedSurfaceLoMm() > 1.0, off.get(0).toString());
+        for (GroupEffect o : off.subList(1, 3)) {
+            assertTrue(o.signedSurfaceLoMm() <= 0 && o.signedSurfaceHiMm() >= 0, o.toString());
+            assertTrue(!o.surfaceBeyond(1.0) && !o.volumeBeyond(15), o.toString());
+        }
+        // the point offsets are the median-centred raw points (same aggregation)
+        double[] e = raw.stream().mapToDouble(GroupEffect::signedSurfaceMm).toArray();
+        EffectEstimator.medianCentre(e);
+        for (int c = 0; c < 3; c++) {
+            assertEquals(e[c], off.get(c).signedSurfaceMm(), 1e-12);
+        }
+        assertEquals(off, EffectEstimator.centreOffsets(rows, 1000, 11), "seeded");
+    }
 }

@@ -166,4 +166,84 @@ class RemlFitTest {
         assertEquals(dense, fit.remlCriterion(), 1e-8 * Math.abs(dense));
         assertEquals(beta, fit.beta()[0], 1e-9);
     }
+
+    /**
+     * Regression: on these data (variance-measure rows of a simulated null study, 3 centres x 3
+     * readers x 12 cases, generator seed 9033492840204814643, analysis seed 20261307) commons-math's
+     * BOBYQA from the start theta = (4, 4) stops with "trust region step has failed to reduce Q" on
+     * the model without the centre term, which used to end the whole analysis. The fit must go on
+     * and reach lme4's optimum. Reference: lme4 1.1-31 (Debian r-cran-lme4) via
+     * fixtures/shift/reml_bobyqa_failure.R, output in reml_bobyqa_failure_output.txt.
+     */
+    @Test
+    void bobyqaFailureIsRecoveredAndMatchesLme4() throws IOException {
+        List<CSVRecord> rows = Fixtures.csv("reml_bobyqa_failure.csv");
+        double[] y = rows.stream().mapToDouble(r -> Double.parseDouble(r.get("y"))).toArray();
+        int[] caseLevels = Fixtures.levels(rows, "case");
+        int[] centreLevels = Fixtures.levels(rows, "centre");
+        int[] readerLevels = Fixtures.levels(rows, "centre", "reader");
+        RemlFit reduced = new RemlFit(List.of("case", "reader"), List.of(caseLevels, readerLevels), null);
+
+        // the defect is still there in the library: BOBYQA alone throws on these data from theta = (4, 4)
+        org.junit.jupiter.api.Assertions.assertThrows(
+                org.apache.commons.math3.exception.MathIllegalStateException.class,
+                () -> new org.apache.commons.math3.optim.nonlinear.scalar.noderiv.BOBYQAOptimizer(5, 0.2, 1e-10)
+                        .optimize(new org.apache.commons.math3.optim.MaxEval(50_000),
+                                org.apache.commons.math3.optim.nonlinear.scalar.GoalType.MINIMIZE,
+                                new org.apache.commons.math3.optim.InitialGuess(new double[] {4, 4}),
+                                new org.apache.commons.math3.optim.SimpleBounds(new double[2],
+                                        new double[] {1e3, 1e3}),
+                                new org.apache.commons.math3.optim.nonlinear.scalar.ObjectiveFunction(
+                                        t -> reduced.criterion(y, t))));
+
+        RemlResult fit0 = reduced.fit(y);
+        assertTrue(fit0.converged());
+        assertTrue(fit0.notes().stream().anyMatch(n -> n.contains("BOBYQA failed")), "the fallback is noted");
+        // lme4 (reml_bobyqa_failure_output.txt): case 0, reader 0.03245972349, residual 0.01429300287,
+        // REMLcrit -119.4700473024
+        assertEquals(0.0, fit0.variance("case"), 0.0, "case variance on the boundary");
+        assertRelative(0.03245972349, fit0.variance("reader"), RELATIVE, "reader");
+        assertRelative(0.01429300287, fit0.residualVariance(), RELATIVE, "residual");
+        assertEquals(-119.4700473024, fit0.remlCriterion(), 1e-6, "REML criterion without centre");
+
+        RemlFit full = new RemlFit(List.of("case", "centre", "reader"),
+                List.of(caseLevels, centreLevels, readerLevels), null);
+        RemlResult fit = full.fit(y);
+        // lme4: case 0, centre 0.02755882898, centre:reader 0.0117906165, residual 0.01429300268,
+        // REMLcrit -123.0955383031
+        assertEquals(0.0, fit.variance("case"), 0.0);
+        assertRelative(0.02755882898, fit.variance("centre"), RELATIVE, "centre");
+        assertRelative(0.0117906165, fit.variance("reader"), RELATIVE, "reader in centre");
+        assertRelative(0.01429300268, fit.residualVariance(), RELATIVE, "residual");
+        assertEquals(-123.0955383031, fit.remlCriterion(), 1e-6, "REML criterion");
+
+        // and through the variance-component step the analysis uses: no exception, LRT as lme4's
+        List<ReaderMeasure> measures = rows.stream().map(r -> new ReaderMeasure(r.get("case"), r.get("centre"),
+                r.get("reader"), Double.parseDouble(r.get("y")))).toList();
+        VarianceComponents.Result vc = VarianceComponents.fit(measures, 0, 0, 1);
+        assertEquals(3.6254910007, vc.centreTest().statistic(), 1e-5, "REML LRT (lme4 REMLcrit difference)");
+        assertTrue(vc.notes().stream().anyMatch(n -> n.contains("BOBYQA failed")));
+    }
+
+    /** An objective that cannot be evaluated anywhere: the fit reports undefined components, never throws. */
+    @Test
+    void everyAttemptFailingGivesUndefinedComponents() {
+        int[] a = {0, 0, 1, 1, 2, 2};
+        int[] b = {0, 1, 0, 1, 0, 1};
+        RemlFit model = new RemlFit(List.of("a", "b"), List.of(a, b), null);
+        double[] huge = {1e308, -1e308, 1e308, -1e308, 1e308, -1e308};
+        // y'y overflows (inf - inf), so the criterion is NaN at every theta
+        assertTrue(Double.isNaN(model.criterion(huge, new double[] {1, 1})));
+        RemlResult fit = model.fit(huge);
+        org.junit.jupiter.api.Assertions.assertFalse(fit.converged());
+        assertTrue(Double.isNaN(fit.variance("a")) && Double.isNaN(fit.residualVariance()));
+        assertTrue(fit.notes().stream().anyMatch(n -> n.contains("every optimisation attempt failed")));
+        List<ReaderMeasure> rows = new java.util.ArrayList<>();
+        for (int i = 0; i < 6; i++) {
+            rows.add(new ReaderMeasure("case" + a[i], "centre" + b[i], "r" + b[i], huge[i]));
+        }
+        VarianceComponents.Result vc = VarianceComponents.fit(rows, 5, 5, 1);
+        assertTrue(vc.components().stream().allMatch(c -> Double.isNaN(c.estimate())), "undefined, not thrown");
+        assertTrue(vc.notes().stream().anyMatch(n -> n.contains("every optimisation attempt failed")));
+    }
 }

@@ -8,7 +8,11 @@ import java.util.List;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 
-/** The rule table of {@link VerdictRules} (our own documented rules; defaults of ShiftSettings). */
+/**
+ * The rule table of {@link VerdictRules} (our own documented rules; defaults of ShiftSettings).
+ * With three or more centres the rules judge the median-centred offsets; the table passes the same
+ * numbers as raw effects and offsets, so each row tests the rule itself.
+ */
 class VerdictRulesTest {
     static final ShiftSettings S = ShiftSettings.defaults();
 
@@ -39,11 +43,12 @@ class VerdictRulesTest {
     })
     void ruleTable(String description, double p, double minP, double mm, double lo, double hi, int adjudicate,
             boolean recalibrate, String verdict, String rule) {
-        List<GroupEffect> centres = List.of(centre("north", mm, lo, hi), centre("south", 0.0, -0.3, 0.3));
+        List<GroupEffect> centres = List.of(centre("north", mm, lo, hi), centre("south", 0.0, -0.3, 0.3),
+                centre("west", 0.0, -0.3, 0.3));
         List<ReaderToRecalibrate> readers = recalibrate
                 ? List.of(new ReaderToRecalibrate("r7", "south", List.of("draws 2.0 mm [1.5, 2.5] outside")))
                 : List.of();
-        VerdictRules.Decision d = VerdictRules.decide(test(p, minP), centres, adjudicate, 20, readers, S);
+        VerdictRules.Decision d = VerdictRules.decide(test(p, minP), centres, centres, adjudicate, 20, readers, S);
         assertEquals(verdict, d.verdict().word(), description + ": " + d.reasons());
         assertEquals(rule, d.rule(), description);
         assertTrue(!d.reasons().isEmpty());
@@ -60,16 +65,97 @@ class VerdictRulesTest {
         }
     }
 
-    @ParameterizedTest(name = "volume {0} [{1}, {2}] -> {3}")
+    /**
+     * The volume minimum counts only with the surface moving the same way. The first two rows
+     * used to read "surface 0.1 [-0.2, 0.4], volume beyond 15 % -> shift": that encoded the defect
+     * (a volume ratio alone passes 15 % with a sub-millimetre margin change on small structures),
+     * so they now expect {@code uncertain}; with a surface interval on the same side they flag.
+     */
+    @ParameterizedTest(name = "surface [{0}, {1}], volume {2} [{3}, {4}] -> {5}")
     @CsvSource({
-        "1.25, 1.18, 1.33, shift",
-        "0.78, 0.70, 0.84, shift",
-        "1.15, 1.05, 1.25, uncertain",
-        "1.02, 0.95, 1.10, none",
+        // surface lo, hi,  ratio, lo,   hi,   flag
+        "0.2,  0.6,  1.25, 1.18, 1.33, shift",       // volume beyond, boundary outside: supported
+        "-0.6, -0.2, 0.78, 0.70, 0.84, shift",       // smaller, boundary inside: supported
+        "-0.2, 0.4,  1.25, 1.18, 1.33, uncertain",   // volume alone (was: shift)
+        "-0.2, 0.4,  0.78, 0.70, 0.84, uncertain",   // volume alone (was: shift)
+        "-0.6, -0.2, 1.25, 1.18, 1.33, uncertain",   // volume larger but boundary inside: contradictory
+        "-0.2, 0.4,  1.15, 1.05, 1.25, uncertain",   // crosses the volume minimum
+        "-0.2, 0.4,  1.02, 0.95, 1.10, none",
     })
-    void volumeShiftAlsoFlags(double ratio, double lo, double hi, String flag) {
-        GroupEffect e = new GroupEffect("east", "east", 3, 12, 0.1, -0.2, 0.4, ratio, lo, hi);
-        VerdictRules.Decision d = VerdictRules.decide(test(0.01, 0.0036), List.of(e), 0, 20, List.of(), S);
+    void volumeNeedsTheSurfaceTheSameWay(double sLo, double sHi, double ratio, double lo, double hi, String flag) {
+        GroupEffect e = new GroupEffect("east", "east", 3, 12, (sLo + sHi) / 2, sLo, sHi, ratio, lo, hi);
+        List<GroupEffect> centres = List.of(e, centre("north", 0, -0.2, 0.2), centre("south", 0, -0.2, 0.2));
+        VerdictRules.Decision d = VerdictRules.decide(test(0.01, 0.0036), centres, centres, 0, 20, List.of(), S);
+        assertEquals(flag, d.centreFlags().get("east"), d.reasons().toString());
+        assertEquals(flag.equals("shift") ? List.of("east") : List.of(), d.flaggedCentres());
+    }
+
+    /**
+     * The mirror effect: harbour draws 1.4 mm wider; against the other centres' consensus (which
+     * contains harbour) the two others look 0.7 mm narrower with 30 % less volume, beyond the 15 %
+     * minimum. The old rule judged these raw effects and flagged all three centres; the median-
+     * centred offsets put the two others at 0, so only harbour is flagged.
+     */
+    @org.junit.jupiter.api.Test
+    void mirrorImagesAreNotFlagged() {
+        List<GroupEffect> raw = List.of(
+                new GroupEffect("harbour", "harbour", 3, 12, 1.4, 1.3, 1.5, 1.6, 1.5, 1.7),
+                new GroupEffect("inland", "inland", 3, 12, -0.7, -0.8, -0.6, 0.70, 0.66, 0.74),
+                new GroupEffect("upland", "upland", 3, 12, -0.7, -0.8, -0.6, 0.70, 0.66, 0.74));
+        List<GroupEffect> offsets = List.of(
+                new GroupEffect("harbour", "harbour", 3, 12, 1.4, 1.3, 1.5, 1.7, 1.6, 1.8),
+                new GroupEffect("inland", "inland", 3, 12, 0.0, -0.1, 0.1, 1.0, 0.97, 1.03),
+                new GroupEffect("upland", "upland", 3, 12, 0.0, -0.1, 0.1, 1.0, 0.97, 1.03));
+        VerdictRules.Decision d = VerdictRules.decide(test(0.004, 0.0036), raw, offsets, 0, 20, List.of(), S);
+        assertEquals("re-annotate", d.verdict().word());
+        assertEquals("centre-shift", d.rule());
+        assertEquals(List.of("harbour"), d.flaggedCentres());
+        assertEquals("none", d.centreFlags().get("inland"));
+        assertEquals("none", d.centreFlags().get("upland"));
+        assertTrue(d.reasons().get(0).startsWith("Centre harbour draws 1.4 mm [1.3, 1.5] outside the typical centre"),
+                d.reasons().get(0));
+        assertTrue(d.reasons().get(0).contains("against the other centres' consensus it draws 1.4 mm [1.3, 1.5] outside"),
+                d.reasons().get(0));
+    }
+
+    /** Two centres are mirrors: the pair is flagged together and the reason says which one cannot be told. */
+    @ParameterizedTest(name = "p = {0}")
+    @CsvSource({
+        "0.004, 0.0036, re-annotate, centre-pair-differs, differ",
+        "0.30,  0.0036, review,      uncertain-centre-effect, uncertain",
+    })
+    void twoCentresAreFlaggedAsAPair(double p, double minP, String verdict, String rule, String flag) {
+        List<GroupEffect> raw = List.of(
+                new GroupEffect("west", "west", 3, 12, -1.4, -1.7, -1.1, 0.7, 0.65, 0.75),
+                new GroupEffect("east", "east", 3, 12, 1.4, 1.1, 1.7, 1.43, 1.33, 1.54));
+        // the offsets of two centres are +-e/2 and are not used to pick one of them
+        List<GroupEffect> offsets = List.of(
+                new GroupEffect("west", "west", 3, 12, -0.7, -0.85, -0.55, 0.84, 0.8, 0.87),
+                new GroupEffect("east", "east", 3, 12, 0.7, 0.55, 0.85, 1.2, 1.15, 1.24));
+        VerdictRules.Decision d = VerdictRules.decide(test(p, minP), raw, offsets, 0, 20, List.of(), S);
+        assertEquals(verdict, d.verdict().word(), d.reasons().toString());
+        assertEquals(rule, d.rule());
         assertEquals(flag, d.centreFlags().get("east"));
+        assertEquals(flag, d.centreFlags().get("west"));
+        assertEquals(flag.equals("differ") ? List.of("east", "west") : List.of(), d.flaggedCentres());
+        assertTrue(d.reasons().get(0).startsWith("Centres east and west differ from each other: east draws 1.4 mm "
+                + "[1.1, 1.7] outside centre west"), d.reasons().get(0));
+        if (flag.equals("differ")) {
+            assertTrue(d.reasons().get(0).contains("cannot tell which centre"), d.reasons().get(0));
+        }
+    }
+
+    /** Three centres of which one has no usable effect: the other two are judged as a pair. */
+    @org.junit.jupiter.api.Test
+    void twoUsableCentresOfThreeAreAPair() {
+        GroupEffect empty = new GroupEffect("north", "north", 3, 0, Double.NaN, Double.NaN, Double.NaN, Double.NaN,
+                Double.NaN, Double.NaN);
+        List<GroupEffect> raw = List.of(
+                new GroupEffect("east", "east", 3, 12, 1.4, 1.1, 1.7, 1.43, 1.33, 1.54), empty,
+                new GroupEffect("west", "west", 3, 12, -1.4, -1.7, -1.1, 0.7, 0.65, 0.75));
+        VerdictRules.Decision d = VerdictRules.decide(test(0.004, 0.0036), raw, raw, 0, 20, List.of(), S);
+        assertEquals("centre-pair-differs", d.rule());
+        assertEquals(List.of("east", "west"), d.flaggedCentres());
+        assertEquals("none", d.centreFlags().get("north"));
     }
 }
