@@ -18,7 +18,8 @@ import picocli.CommandLine.Command;
     subcommands = {
         CommandLine.HelpCommand.class,
         InspectCommand.class,
-        DemoCommand.class
+        DemoCommand.class,
+        BenchCommand.class
     },
     exitCodeListHeading = "%nExit codes:%n",
     exitCodeList = {
