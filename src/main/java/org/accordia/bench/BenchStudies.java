@@ -7,11 +7,14 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
 import java.util.Comparator;
+import java.util.List;
 import java.util.Locale;
 import java.util.stream.Stream;
 import org.accordia.demo.DemoGenerator;
 import org.accordia.demo.DemoSpec;
 import org.accordia.io.InputException;
+import org.accordia.study.Protocol;
+import org.accordia.study.Structure;
 
 /**
  * Generated benchmark studies cached in a work folder: one sub-folder per generator
@@ -32,6 +35,18 @@ public final class BenchStudies {
         DemoSpec base = DemoSpec.defaults().withRoster(cases, 3, 3)
             .withGrid(size[0], size[1], size[2], spacingMm[0], spacingMm[1], spacingMm[2]);
         return base;
+    }
+
+    /**
+     * The protocol the benchmarks analyse with: every default, and the structures of the demo
+     * protocol (protocols/demo.yaml): {@code lesion} = labels {1, 2} (tolerance 2 mm) and
+     * {@code core} = label {2} (1.5 mm).
+     */
+    public static Protocol protocol() {
+        Protocol d = Protocol.defaults();
+        return new Protocol("benchmark (generated)", List.of(new Structure("lesion", List.of(1, 2), 2.0),
+            new Structure("core", List.of(2), 1.5)), d.geometryToleranceMm(), d.maxVoxels(), d.seed(), d.agreement(),
+            d.consensus(), d.shift(), d.review());
     }
 
     /** Folder name of a spec inside the work folder. */

@@ -2,8 +2,6 @@ package org.accordia.bench;
 
 import java.util.ArrayList;
 import java.util.List;
-import java.util.SortedSet;
-import java.util.TreeSet;
 import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
@@ -104,7 +102,11 @@ public final class CaseBench {
         try {
             CaseAgreementEngine engine = new CaseAgreementEngine(org.accordia.study.Structure.DEFAULT_TOLERANCE_MM,
                 org.accordia.study.Structure.DEFAULT_TOLERANCE_MM, enginePool);
-            List<Structure> structures = structuresOf(study);
+            // the structures of protocols/demo.yaml: lesion = {1, 2}, core = {2}
+            List<Structure> structures = new ArrayList<>();
+            for (org.accordia.study.Structure st : BenchStudies.protocol().structures()) {
+                structures.add(Structure.of(st.name(), st.labels().stream().mapToInt(Integer::intValue).toArray()));
+            }
             long check = 0;
             long[][][] t = new long[5][nc][rounds];
             int[] readers = new int[nc];
@@ -206,31 +208,6 @@ public final class CaseBench {
         double[] sp = g.spacingMm();
         var b = a.unionBox();
         return Math.max((b.x1() - b.x0()) * sp[0], Math.max((b.y1() - b.y0()) * sp[1], (b.z1() - b.z0()) * sp[2]));
-    }
-
-    /**
-     * One structure per label value present in the study (judged from the first reader's mask of
-     * every case), as the default protocol does.
-     */
-    static List<Structure> structuresOf(Study study) throws InputException {
-        SortedSet<Integer> present = new TreeSet<>();
-        for (String caseId : study.cases()) {
-            List<MaskRef> refs = study.masksOf(caseId);
-            LabelVolume v = Volumes.readLabels(refs.get(0).path(), ReadLimits.DEFAULT);
-            int n = v.voxelCount();
-            for (int i = 0; i < n; i++) {
-                int l = v.label(i);
-                if (l != 0) {
-                    present.add(l);
-                }
-            }
-        }
-        present.add(1);
-        List<Structure> out = new ArrayList<>();
-        for (org.accordia.study.Structure s : Protocol.defaults().structuresFor(present)) {
-            out.add(Structure.of(s.name(), s.labels().stream().mapToInt(Integer::intValue).toArray()));
-        }
-        return out;
     }
 
     private static List<LabelVolume> readParallel(List<MaskRef> refs, ExecutorService pool) throws InputException {
