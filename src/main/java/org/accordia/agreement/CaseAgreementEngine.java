@@ -15,6 +15,8 @@ import java.util.concurrent.atomic.AtomicInteger;
 import org.accordia.agreement.Borders.Box;
 import org.accordia.io.Geometry;
 import org.accordia.io.LabelVolume;
+import org.accordia.study.ReaderId;
+import org.accordia.study.Structure;
 
 /**
  * Agreement of every reader pair of one case, for every structure, in one streaming step.
@@ -128,7 +130,7 @@ public final class CaseAgreementEngine {
         int r = masks.size();
         int ns = structures.size();
         boolean allBytes = masks.stream().allMatch(LabelVolume::isCompact);
-        boolean zeroInAny = structures.stream().anyMatch(st -> st.contains(0));
+        boolean zeroInAny = structures.stream().anyMatch(st -> st.covers(0));
         Pass pass = new Pass();
         pass.histograms = new PatternHistogram[ns];
         pass.boxes = new Box[ns];
@@ -338,8 +340,10 @@ public final class CaseAgreementEngine {
         int r = masks.size();
         int ns = structures.size();
         boolean[][] tables = new boolean[ns][];
+        int[][] values = new int[ns][];
         for (int s = 0; s < ns; s++) {
             tables[s] = structures.get(s).byteTable();
+            values[s] = structures.get(s).labelArray();
         }
         long[] pat = new long[ns];
         for (int row = rowFrom; row < rowTo; row++) {
@@ -352,7 +356,7 @@ public final class CaseAgreementEngine {
                     LabelVolume m = masks.get(j);
                     int v = m.label(i);
                     for (int s = 0; s < ns; s++) {
-                        boolean in = v < 256 ? tables[s][v] : structures.get(s).contains(v);
+                        boolean in = v < 256 ? tables[s][v] : Arrays.binarySearch(values[s], v) >= 0;
                         if (in) {
                             pat[s] |= 1L << j;
                         }
@@ -503,7 +507,7 @@ public final class CaseAgreementEngine {
     private static boolean[] member(LabelVolume m, Structure st, Box box, Geometry g) {
         return m.isCompact()
             ? Borders.crop(m.bytes(), st.byteTable(), g.nx(), g.ny(), g.nz(), box)
-            : Borders.cropInts(m.ints(), st.labels(), g.nx(), g.ny(), g.nz(), box);
+            : Borders.cropInts(m.ints(), st.labelArray(), g.nx(), g.ny(), g.nz(), box);
     }
 
     /** Border voxels of the structure inside the box, as box linear indices (judged on the full grid). */
@@ -511,7 +515,7 @@ public final class CaseAgreementEngine {
         if (m.isCompact()) {
             return Borders.borderIndicesInBox(m.bytes(), st.byteTable(), g.nx(), g.ny(), g.nz(), box);
         }
-        boolean[] b = Borders.borderMaskInBox(m.ints(), st.labels(), g.nx(), g.ny(), g.nz(), box);
+        boolean[] b = Borders.borderMaskInBox(m.ints(), st.labelArray(), g.nx(), g.ny(), g.nz(), box);
         int n = 0;
         for (boolean v : b) {
             n += v ? 1 : 0;

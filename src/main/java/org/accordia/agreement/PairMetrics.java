@@ -1,5 +1,7 @@
 package org.accordia.agreement;
 
+import org.accordia.study.ReaderId;
+
 import java.util.List;
 
 /**

@@ -171,6 +171,72 @@ public final class DemoGenerator {
         return truth;
     }
 
+    /**
+     * The study of {@code spec} held in memory: nothing is written, each case is generated when
+     * asked for (the same masks, bit for bit, as the files {@link #generate} writes). Thread-safe.
+     */
+    public static InMemory inMemory(DemoSpec spec) {
+        return new InMemory(spec, plan(spec),
+            Geometry.axisAligned(spec.nx(), spec.ny(), spec.nz(), spec.sxMm(), spec.syMm(), spec.szMm()));
+    }
+
+    /** A generated study in memory (see {@link #inMemory(DemoSpec)}). */
+    public static final class InMemory {
+        private final DemoSpec spec;
+        private final Plan plan;
+        private final Geometry geometry;
+
+        private InMemory(DemoSpec spec, Plan plan, Geometry geometry) {
+            this.spec = spec;
+            this.plan = plan;
+            this.geometry = geometry;
+        }
+
+        public DemoSpec spec() {
+            return spec;
+        }
+
+        /** What was planted. */
+        public DemoTruth truth() {
+            return plan.truth;
+        }
+
+        /** Case identifiers, sorted. */
+        public List<String> caseIds() {
+            return plan.caseIds;
+        }
+
+        /** Every reader, sorted by centre then name. */
+        public List<org.accordia.study.ReaderId> readers() {
+            return plan.readers.stream().map(r -> new org.accordia.study.ReaderId(r.name, r.centre)).sorted().toList();
+        }
+
+        /** One case's masks, readers sorted by centre then name. */
+        public org.accordia.study.LoadedCase load(String caseId) {
+            CaseData data = generateCase(spec, plan, indexOf(caseId), geometry);
+            java.util.TreeMap<org.accordia.study.ReaderId, LabelVolume> byReader = new java.util.TreeMap<>();
+            for (int r = 0; r < plan.readers.size(); r++) {
+                Reader rd = plan.readers.get(r);
+                byReader.put(new org.accordia.study.ReaderId(rd.name, rd.centre), data.masks.get(r));
+            }
+            return new org.accordia.study.LoadedCase(caseId, geometry, new ArrayList<>(byReader.keySet()),
+                new ArrayList<>(byReader.values()));
+        }
+
+        /** One case's phantom image (generates the case again). */
+        public ImageVolume image(String caseId) {
+            return generateCase(spec, plan, indexOf(caseId), geometry).image;
+        }
+
+        private int indexOf(String caseId) {
+            int i = plan.caseIds.indexOf(caseId);
+            if (i < 0) {
+                throw new IllegalArgumentException("no case " + caseId + " in this demo study");
+            }
+            return i;
+        }
+    }
+
     private static void writeCase(DemoSpec spec, Plan plan, int c, Geometry geometry, Path outDir) throws IOException {
         CaseData data = generateCase(spec, plan, c, geometry);
         String caseId = plan.caseIds.get(c);

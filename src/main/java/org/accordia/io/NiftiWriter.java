@@ -49,6 +49,15 @@ public final class NiftiWriter {
      */
     public static void writeLabels(Path out, LabelVolume v) throws IOException {
         checkName(out);
+        writeAtomically(out, os -> writeLabels(os, v, isGzip(out)));
+    }
+
+    /**
+     * Writes a label mask as a complete NIfTI-1 file to {@code os} (gzip-compressed when
+     * {@code gzip}); for callers that manage the file themselves (e.g. an atomic output folder).
+     * Finishes the gzip stream but does not close {@code os}.
+     */
+    public static void writeLabels(OutputStream os, LabelVolume v, boolean gzip) throws IOException {
         if (v.maxLabel() > 65535) {
             throw new IllegalArgumentException("label " + v.maxLabel() + " exceeds 65535, the largest a uint16 NIfTI mask holds");
         }
@@ -56,10 +65,10 @@ public final class NiftiWriter {
         int n = v.voxelCount();
         if (v.isCompact()) {
             byte[] data = v.bytes();
-            write(out, g, DT_UINT8, 8, 0, v.maxLabel(), os -> os.write(data, 0, n));
+            encode(os, gzip, g, DT_UINT8, 8, 0, v.maxLabel(), o -> o.write(data, 0, n));
         } else {
             int[] labels = v.ints();
-            write(out, g, DT_UINT16, 16, 0, v.maxLabel(), os -> {
+            encode(os, gzip, g, DT_UINT16, 16, 0, v.maxLabel(), o -> {
                 byte[] buf = new byte[1 << 16];
                 int k = 0;
                 for (int i = 0; i < n; i++) {
@@ -67,11 +76,11 @@ public final class NiftiWriter {
                     buf[k++] = (byte) value;
                     buf[k++] = (byte) (value >>> 8);
                     if (k == buf.length) {
-                        os.write(buf, 0, k);
+                        o.write(buf, 0, k);
                         k = 0;
                     }
                 }
-                os.write(buf, 0, k);
+                o.write(buf, 0, k);
             });
         }
     }
@@ -79,17 +88,25 @@ public final class NiftiWriter {
     /** Writes per-voxel probabilities (or any float map) as float32. */
     public static void writeProbability(Path out, Geometry g, float[] values) throws IOException {
         checkName(out);
+        writeAtomically(out, os -> writeProbability(os, g, values, isGzip(out)));
+    }
+
+    /**
+     * Writes a float32 map as a complete NIfTI-1 file to {@code os} (see
+     * {@link #writeLabels(OutputStream, LabelVolume, boolean)}); does not close {@code os}.
+     */
+    public static void writeProbability(OutputStream os, Geometry g, float[] values, boolean gzip) throws IOException {
         if (values.length != g.voxelCount()) {
             throw new IllegalArgumentException("values has " + values.length + " entries, geometry "
                 + g.dimsText() + " needs " + g.voxelCount());
         }
-        write(out, g, DT_FLOAT32, 32, 0, 1, os -> writeFloats(os, values));
+        encode(os, gzip, g, DT_FLOAT32, 32, 0, 1, o -> writeFloats(o, values));
     }
 
     /** Writes an intensity image as float32. */
     public static void writeImage(Path out, ImageVolume v) throws IOException {
         checkName(out);
-        write(out, v.geometry(), DT_FLOAT32, 32, 0, 0, os -> writeFloats(os, v.data()));
+        writeAtomically(out, os -> encode(os, isGzip(out), v.geometry(), DT_FLOAT32, 32, 0, 0, o -> writeFloats(o, v.data())));
     }
 
     private static void writeFloats(OutputStream os, float[] values) throws IOException {
@@ -116,9 +133,31 @@ public final class NiftiWriter {
         void write(OutputStream os) throws IOException;
     }
 
-    private static void write(Path out, Geometry g, short datatype, int bitpix, double calMin, double calMax, Body body)
-            throws IOException {
-        boolean gzip = out.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".gz");
+    private static boolean isGzip(Path out) {
+        return out.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".gz");
+    }
+
+    /** Header then body, gzip-compressed or buffered; finishes the encoding, leaves {@code target} open. */
+    private static void encode(OutputStream target, boolean gzip, Geometry g, short datatype, int bitpix, double calMin,
+                               double calMax, Body body) throws IOException {
+        OutputStream shield = new java.io.FilterOutputStream(target) {
+            @Override
+            public void write(byte[] b, int off, int len) throws IOException {
+                out.write(b, off, len);
+            }
+
+            @Override
+            public void close() throws IOException {
+                flush();
+            }
+        };
+        try (OutputStream os = gzip ? new GZIPOutputStream(shield, 1 << 16) : new BufferedOutputStream(shield, 1 << 16)) {
+            os.write(header(g, datatype, bitpix, calMin, calMax));
+            body.write(os);
+        }
+    }
+
+    private static void writeAtomically(Path out, Body body) throws IOException {
         Path dir = out.toAbsolutePath().getParent();
         Files.createDirectories(dir);
         // Not Files.createTempFile: that would create the file with owner-only permissions; this
@@ -136,15 +175,10 @@ public final class NiftiWriter {
                 }
             }
         }
-        OutputStream target = file;
         boolean done = false;
         try {
-            try (target;
-                 OutputStream os = gzip
-                     ? new GZIPOutputStream(target, 1 << 16)
-                     : new BufferedOutputStream(target, 1 << 16)) {
-                os.write(header(g, datatype, bitpix, calMin, calMax));
-                body.write(os);
+            try (OutputStream target = file) {
+                body.write(target);
             }
             try {
                 Files.move(tmp, out, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);

@@ -52,9 +52,9 @@ public record Protocol(String study, List<Structure> structures, double geometry
 
     /** Where the STAPLE estimate is computed. */
     public enum ConsensusRegion {
-        /** Every voxel of the grid (default). */
+        /** Every voxel of the grid. */
         GRID("grid"),
-        /** The union of all readers' foreground grown by a margin. */
+        /** The union of all readers' structure grown by the structure's tolerance (default). */
         UNION_MARGIN("union_margin");
 
         private final String key;
@@ -188,7 +188,7 @@ public record Protocol(String study, List<Structure> structures, double geometry
     public static Protocol defaults() {
         return new Protocol(null, List.of(), DEFAULT_GEOMETRY_TOLERANCE_MM, ReadLimits.ARRAY_LIMIT, DEFAULT_SEED,
             new Agreement(Hd95Mode.PER_DIRECTION),
-            new Consensus(ConsensusRegion.GRID, 2000),
+            new Consensus(ConsensusRegion.UNION_MARGIN, 2000),
             new Shift(ShiftDistance.ONE_MINUS_JACCARD, 0.05, 9999, 1.0, 15),
             new Review(0.70, 10.0, 1.0, 20, 0.20));
     }

@@ -17,6 +17,9 @@ public record ReaderId(String reader, String centre) implements Comparable<Reade
     public ReaderId {
         Objects.requireNonNull(reader, "reader");
         Objects.requireNonNull(centre, "centre");
+        if (reader.isBlank() || centre.isBlank()) {
+            throw new IllegalArgumentException("reader and centre must be non-blank");
+        }
     }
 
     @Override

@@ -18,6 +18,9 @@ public record Structure(String name, List<Integer> labels, double toleranceMm) {
 
     public Structure {
         Objects.requireNonNull(name, "name");
+        if (name.isBlank()) {
+            throw new IllegalArgumentException("a structure needs a name");
+        }
         if (labels == null || labels.isEmpty()) {
             throw new IllegalArgumentException("a structure needs at least one label");
         }
@@ -39,8 +42,29 @@ public record Structure(String name, List<Integer> labels, double toleranceMm) {
         return new Structure("label_" + label, List.of(label), DEFAULT_TOLERANCE_MM);
     }
 
+    /** A structure of these label values with the default tolerance. */
+    public static Structure of(String name, int... labels) {
+        return new Structure(name, java.util.Arrays.stream(labels).boxed().toList(), DEFAULT_TOLERANCE_MM);
+    }
+
     /** True when a voxel with this label belongs to the structure. */
     public boolean covers(int label) {
         return labels.contains(label);
+    }
+
+    /** The label values as a new sorted array. */
+    public int[] labelArray() {
+        return labels.stream().mapToInt(Integer::intValue).toArray();
+    }
+
+    /** Membership table for byte labels: entry {@code v} is true when {@code v} belongs. */
+    public boolean[] byteTable() {
+        boolean[] t = new boolean[256];
+        for (int v : labels) {
+            if (v < 256) {
+                t[v] = true;
+            }
+        }
+        return t;
     }
 }

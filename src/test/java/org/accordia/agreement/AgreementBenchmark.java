@@ -1,5 +1,8 @@
 package org.accordia.agreement;
 
+import org.accordia.study.ReaderId;
+import org.accordia.study.Structure;
+
 import java.io.ByteArrayInputStream;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;

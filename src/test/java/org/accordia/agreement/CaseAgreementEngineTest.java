@@ -1,5 +1,8 @@
 package org.accordia.agreement;
 
+import org.accordia.study.ReaderId;
+import org.accordia.study.Structure;
+
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -145,7 +148,7 @@ class CaseAgreementEngineTest {
     static boolean[] member(byte[] lab, Structure st) {
         boolean[] m = new boolean[lab.length];
         for (int i = 0; i < lab.length; i++) {
-            m[i] = st.contains(lab[i] & 0xFF);
+            m[i] = st.covers(lab[i] & 0xFF);
         }
         return m;
     }
@@ -397,7 +400,7 @@ class CaseAgreementEngineTest {
         for (int i = 0; i < union.length; i++) {
             int p = 0;
             for (int j = 0; j < 3; j++) {
-                if (CORE.contains(raw.get(j)[i] & 0xFF)) {
+                if (CORE.covers(raw.get(j)[i] & 0xFF)) {
                     p |= 1 << j;
                     union[i] = true;
                 }
@@ -424,7 +427,8 @@ class CaseAgreementEngineTest {
             raw.add(lab);
             masks.add(LabelVolume.ofBytes(g, lab));
         }
-        Structure outside = Structure.of("outside", 0, 3);
+        // 18 readers (> 16) take the general histogram path; label 0 is no structure value (study.Structure)
+        Structure outside = Structure.of("outside", 3);
         List<CaseAgreement> res = new CaseAgreementEngine(1.0).evaluate("c", ids(r), masks, List.of(WHOLE, outside));
         for (int s = 0; s < 2; s++) {
             Structure st = s == 0 ? WHOLE : outside;
@@ -432,7 +436,7 @@ class CaseAgreementEngineTest {
             for (int i = 0; i < nx * ny * nz; i++) {
                 long p = 0;
                 for (int j = 0; j < r; j++) {
-                    if (st.contains(raw.get(j)[i] & 0xFF)) {
+                    if (st.covers(raw.get(j)[i] & 0xFF)) {
                         p |= 1L << j;
                     }
                 }

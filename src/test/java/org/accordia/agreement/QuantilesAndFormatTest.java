@@ -1,5 +1,7 @@
 package org.accordia.agreement;
 
+import org.accordia.study.ReaderId;
+
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 

@@ -1,5 +1,8 @@
 package org.accordia.agreement;
 
+import org.accordia.study.ReaderId;
+import org.accordia.study.Structure;
+
 import static org.junit.jupiter.api.Assertions.assertEquals;
 
 import com.fasterxml.jackson.databind.JsonNode;
