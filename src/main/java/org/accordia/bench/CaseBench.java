@@ -9,7 +9,6 @@ import java.util.concurrent.Future;
 import org.accordia.agreement.CaseAgreement;
 import org.accordia.agreement.CaseAgreementEngine;
 import org.accordia.agreement.PatternHistogram;
-import org.accordia.agreement.Structure;
 import org.accordia.consensus.CaseReferences;
 import org.accordia.consensus.ConsensusOutputs;
 import org.accordia.consensus.LabelTupleHistogram;
@@ -24,6 +23,8 @@ import org.accordia.io.Volumes;
 import org.accordia.study.CaseLoader;
 import org.accordia.study.MaskRef;
 import org.accordia.study.Protocol;
+import org.accordia.study.ReaderId;
+import org.accordia.study.Structure;
 import org.accordia.study.Study;
 
 /**
@@ -100,13 +101,10 @@ public final class CaseBench {
         ExecutorService enginePool = threads > 1 ? Executors.newFixedThreadPool(threads - 1,
             daemon("accordia-bench-agreement")) : null;
         try {
-            CaseAgreementEngine engine = new CaseAgreementEngine(org.accordia.study.Structure.DEFAULT_TOLERANCE_MM,
-                org.accordia.study.Structure.DEFAULT_TOLERANCE_MM, enginePool);
+            CaseAgreementEngine engine = new CaseAgreementEngine(Structure.DEFAULT_TOLERANCE_MM,
+                Structure.DEFAULT_TOLERANCE_MM, enginePool);
             // the structures of protocols/demo.yaml: lesion = {1, 2}, core = {2}
-            List<Structure> structures = new ArrayList<>();
-            for (org.accordia.study.Structure st : BenchStudies.protocol().structures()) {
-                structures.add(Structure.of(st.name(), st.labels().stream().mapToInt(Integer::intValue).toArray()));
-            }
+            List<Structure> structures = BenchStudies.protocol().structures();
             long check = 0;
             long[][][] t = new long[5][nc][rounds];
             int[] readers = new int[nc];
@@ -122,11 +120,11 @@ public final class CaseBench {
                     check += CaseLoader.load(study, caseId, ReadLimits.DEFAULT,
                         Protocol.DEFAULT_GEOMETRY_TOLERANCE_MM).masks().size();
                     long t2 = System.nanoTime();
-                    List<org.accordia.agreement.ReaderId> ids = new ArrayList<>();
+                    List<ReaderId> ids = new ArrayList<>();
                     List<String> names = new ArrayList<>();
                     List<String> centres = new ArrayList<>();
                     for (MaskRef r : refs) {
-                        ids.add(new org.accordia.agreement.ReaderId(r.reader().reader(), r.reader().centre()));
+                        ids.add(r.reader());
                         names.add(r.reader().reader());
                         centres.add(r.reader().centre());
                     }
@@ -149,7 +147,7 @@ public final class CaseBench {
                     long t7 = System.nanoTime();
                     for (int s = 0; consensus && s < structures.size(); s++) {
                         CaseReferences r = references.get(s);
-                        int[] labels = structures.get(s).labels();
+                        int[] labels = structures.get(s).labelArray();
                         check += r.rowsWithSurfaces(masks, labels).size();
                         float[] map = ConsensusOutputs.probabilityMap(masks, labels, r.all());
                         check += map.length;

@@ -19,7 +19,8 @@ import picocli.CommandLine.Command;
         CommandLine.HelpCommand.class,
         InspectCommand.class,
         DemoCommand.class,
-        BenchCommand.class
+        BenchCommand.class,
+        CalibrateCommand.class
     },
     exitCodeListHeading = "%nExit codes:%n",
     exitCodeList = {
