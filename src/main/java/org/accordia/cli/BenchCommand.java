@@ -6,6 +6,7 @@ import java.time.Instant;
 import java.time.temporal.ChronoUnit;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.accordia.bench.BenchNumbers;
 import org.accordia.bench.BenchStudies;
 import org.accordia.bench.CaseBench;
 import org.accordia.bench.Machine;
@@ -109,13 +110,9 @@ public final class BenchCommand implements Callable<Integer> {
         w.printf(Locale.ROOT, "study: %s (%s), %d cases x %d readers (%d centres x %d), %dx%dx%d voxels, %sx%sx%s mm%n",
             folder, cached ? "cached" : String.format(Locale.ROOT, "generated in %.1f s", (System.nanoTime() - t0) / 1e9),
             demo.cases(), demo.centres() * demo.readersPerCentre(), demo.centres(), demo.readersPerCentre(), demo.nx(),
-            demo.ny(), demo.nz(), num(demo.sxMm()), num(demo.syMm()), num(demo.szMm()));
+            demo.ny(), demo.nz(), BenchNumbers.text(demo.sxMm()), BenchNumbers.text(demo.syMm()), BenchNumbers.text(demo.szMm()));
         w.flush();
         return folder;
-    }
-
-    static String num(double v) {
-        return v == Math.rint(v) ? Long.toString((long) v) : Double.toString(v);
     }
 
     static void printCases(PrintWriter w, CaseBench.Result r, boolean agreement, boolean consensus) {
