@@ -2,7 +2,6 @@ package org.accordia.agreement;
 
 import org.accordia.study.ReaderId;
 
-import java.util.List;
 
 /**
  * Agreement of two readers on one structure of one case. Reader A comes before reader B in the
@@ -18,7 +17,7 @@ import java.util.List;
  * <p>Empty masks: both empty → dice = jaccard = 1, relative volume difference and all distances
  * NaN, flag {@code both_empty}; exactly one empty → dice = jaccard = 0, relative volume difference
  * ±2, distances NaN, flag {@code one_empty}; otherwise the flag is the empty string. NaN is
- * written as an empty CSV cell.
+ * an undefined value (an empty cell in pairs.csv, written by the report layer).
  */
 public record PairMetrics(String caseId, String label, String readerA, String centreA, String readerB,
                           String centreB, double dice, double jaccard, double volumeAMl, double volumeBMl,
@@ -28,22 +27,6 @@ public record PairMetrics(String caseId, String label, String readerA, String ce
     public static final String FLAG_NONE = "";
     public static final String FLAG_BOTH_EMPTY = "both_empty";
     public static final String FLAG_ONE_EMPTY = "one_empty";
-
-    /** Columns of pairs.csv, in order. */
-    public static final List<String> CSV_HEADER = List.of("case", "label", "reader_a", "centre_a", "reader_b",
-        "centre_b", "dice", "jaccard", "volume_a_ml", "volume_b_ml", "hd_mm", "hd95_mm", "assd_mm", "nsd", "flag");
-
-    /**
-     * The row of pairs.csv, one string per {@link #CSV_HEADER} column; numbers in the format of
-     * {@link NumberFormat6} (≤ 6 significant digits, Locale-independent, NaN → empty cell).
-     */
-    public List<String> csvValues() {
-        return List.of(caseId, label, readerA, centreA, readerB, centreB,
-            NumberFormat6.format(dice), NumberFormat6.format(jaccard),
-            NumberFormat6.format(volumeAMl), NumberFormat6.format(volumeBMl),
-            NumberFormat6.format(hdMm), NumberFormat6.format(hd95Mm), NumberFormat6.format(assdMm),
-            NumberFormat6.format(nsd), flag);
-    }
 
     /** True when the distances are defined (both masks non-empty). */
     public boolean hasDistances() {

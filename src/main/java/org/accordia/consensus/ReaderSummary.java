@@ -35,22 +35,6 @@ public record ReaderSummary(String label, String reader, String centre, String r
 
     public static final int DEFAULT_RESAMPLES = 2000;
 
-    public static final String CSV_HEADER = "label,reader,centre,reference,cases,resamples,"
-        + "sensitivity,sensitivity_lo,sensitivity_hi,specificity,specificity_lo,specificity_hi,"
-        + "dice_vs_consensus,dice_lo,dice_hi,signed_surface_mm,signed_surface_lo_mm,signed_surface_hi_mm,"
-        + "volume_ratio_geomean,volume_ratio_lo,volume_ratio_hi";
-
-    public List<String> csvCells() {
-        List<String> c = new ArrayList<>(List.of(label, reader, centre, reference, Integer.toString(cases),
-            Integer.toString(resamples)));
-        for (double v : new double[] {meanSensitivity, sensitivityLo, sensitivityHi, meanSpecificity, specificityLo,
-            specificityHi, meanDice, diceLo, diceHi, meanSignedSurfaceMm, signedSurfaceLoMm, signedSurfaceHiMm,
-            geoMeanVolumeRatio, volumeRatioLo, volumeRatioHi}) {
-            c.add(ReaderPerformance.format(v));
-        }
-        return c;
-    }
-
     /**
      * Summaries per (label, reader, centre, reference), sorted by those keys.
      *

@@ -78,15 +78,4 @@ class CaseReferencesTest {
             Fixtures.histogram(d), 0.001, StapleOptions.defaults());
         assertEquals(6, refs.rows().size());
     }
-
-    @Test
-    void csvRow() {
-        ReaderPerformance r = new ReaderPerformance("case1", "liver", "r2", "north", 0.8, 1.0, 2.0 / 3,
-            12.5, Double.POSITIVE_INFINITY, Double.NaN, "others");
-        assertEquals(ReaderPerformance.CSV_HEADER.split(",").length, r.csvCells().size());
-        assertEquals(List.of("case1", "liver", "r2", "north", "0.8", "1", "0.6666666667", "12.5", "inf", "", "others"),
-            r.csvCells());
-        assertEquals("1.234567891e-05", ReaderPerformance.format(1.2345678912e-5));
-        assertEquals("-0.25", ReaderPerformance.format(-0.25));
-    }
 }

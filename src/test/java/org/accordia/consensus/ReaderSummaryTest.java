@@ -55,7 +55,6 @@ class ReaderSummaryTest {
         assertNotEquals(a.get(1), ReaderSummary.summarise(rows, 1000, 8L).get(1));
         ReaderSummary r2 = a.get(1);
         assertTrue(r2.sensitivityLo() < r2.meanSensitivity() && r2.meanSensitivity() < r2.sensitivityHi());
-        assertEquals(ReaderSummary.CSV_HEADER.split(",").length, r2.csvCells().size());
     }
 
     @Test

@@ -30,6 +30,13 @@ class NumbersTest {
         "1.0E15             | 1E+15",
         "6.02214076E23      | 6.02214E+23",
         "-2.0E-300          | -2E-300",
+        // rows kept from the former per-package formatters (agreement, consensus, shift), now this one
+        "0.8                | 0.8",
+        "0.6666666666666666 | 0.666667",
+        "-0.125             | -0.125",
+        "-0.25              | -0.25",
+        "0.9876543219       | 0.987654",
+        "1.2345678912E-5    | 0.0000123457",
         "NaN                | \"\"",
         "Infinity           | \"\"",
         "-Infinity          | \"\"",
