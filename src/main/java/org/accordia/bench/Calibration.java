@@ -86,9 +86,15 @@ public final class Calibration {
         }
     }
 
-    /** One run: its generator seed, the outcome, and how it was judged. */
+    /**
+     * One run: its generator seed, the outcome (null when the analysis failed, {@code error} then
+     * says why), and how it was judged. A failed run counts as neither a flag nor a detection.
+     */
     public record Run(int index, boolean shifted, long generatorSeed, ShiftOutcome outcome, String primaryCentre,
-                      double primaryEffectMm, boolean flagged, boolean correct) {
+                      double primaryEffectMm, boolean flagged, boolean correct, String error) {
+        public boolean failed() {
+            return outcome == null;
+        }
     }
 
     /**
@@ -113,6 +119,14 @@ public final class Calibration {
 
         public int correctDetections() {
             return (int) shiftedRuns.stream().filter(Run::correct).count();
+        }
+
+        /** Runs whose analysis threw (listed, never silently dropped). */
+        public List<Run> failedRuns() {
+            List<Run> out = new ArrayList<>();
+            nullRuns.stream().filter(Run::failed).forEach(out::add);
+            shiftedRuns.stream().filter(Run::failed).forEach(out::add);
+            return out;
         }
 
         public BinomialInterval nullRate() {
@@ -145,15 +159,27 @@ public final class Calibration {
             List<Future<Run>> sh = new ArrayList<>();
             for (int i = 0; i < s.runs(); i++) {
                 int k = i;
-                nul.add(pool.submit(() -> judge(k, false, s.nullSpec(k), runner.run(s.nullSpec(k), s.seed() + k),
-                    shiftedCentre, s.shiftMm())));
-                sh.add(pool.submit(() -> judge(k, true, s.shiftedSpec(k), runner.run(s.shiftedSpec(k), s.seed() + k),
-                    shiftedCentre, s.shiftMm())));
+                nul.add(pool.submit(() -> attempt(k, false, s.nullSpec(k), s.seed() + k, runner, shiftedCentre,
+                    s.shiftMm())));
+                sh.add(pool.submit(() -> attempt(k, true, s.shiftedSpec(k), s.seed() + k, runner, shiftedCentre,
+                    s.shiftMm())));
             }
             return new Result(s, shiftedCentre, collect(nul), collect(sh));
         } finally {
             pool.shutdownNow();
         }
+    }
+
+    private static Run attempt(int index, boolean shifted, DemoSpec spec, long analysisSeed, StudyRunner runner,
+            String shiftedCentre, double shiftMm) {
+        ShiftOutcome o;
+        try {
+            o = runner.run(spec, analysisSeed);
+        } catch (Exception | AssertionError e) {
+            return new Run(index, shifted, spec.seed(), null, null, Double.NaN, false, false,
+                e.getClass().getSimpleName() + ": " + e.getMessage());
+        }
+        return judge(index, shifted, spec, o, shiftedCentre, shiftMm);
     }
 
     static Run judge(int index, boolean shifted, DemoSpec spec, ShiftOutcome o, String shiftedCentre, double shiftMm) {
@@ -166,7 +192,7 @@ public final class Calibration {
         boolean correct = shifted && primary != null && primary.group().equals(shiftedCentre)
             && Math.signum(primary.signedSurfaceMm()) == Math.signum(shiftMm);
         return new Run(index, shifted, spec.seed(), o, primary == null ? null : primary.group(),
-            primary == null ? Double.NaN : primary.signedSurfaceMm(), flagged, correct);
+            primary == null ? Double.NaN : primary.signedSurfaceMm(), flagged, correct, null);
     }
 
     private static List<Run> collect(List<Future<Run>> fs) throws Exception {

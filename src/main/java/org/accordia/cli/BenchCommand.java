@@ -6,9 +6,13 @@ import java.time.Instant;
 import java.time.temporal.ChronoUnit;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import java.util.List;
+import org.accordia.bench.AnalyzeBench;
+import org.accordia.bench.AnalyzeProbe;
 import org.accordia.bench.BenchNumbers;
 import org.accordia.bench.BenchStudies;
 import org.accordia.bench.CaseBench;
+import org.accordia.bench.ChildJvm;
 import org.accordia.bench.Machine;
 import org.accordia.demo.DemoSpec;
 import org.accordia.io.InputException;
@@ -73,12 +77,34 @@ public final class BenchCommand implements Callable<Integer> {
         description = "Rounds run first and discarded (default: ${DEFAULT-VALUE}).")
     int warmup = 1;
 
+    @Option(names = "--analyze-cases", paramLabel = "N",
+        description = "Cases of the study timed end to end (default: ${DEFAULT-VALUE}).")
+    int analyzeCases = 20;
+
+    @Option(names = "--analyze-rounds", paramLabel = "N",
+        description = "Measured end-to-end rounds (after --warmup discarded ones) (default: ${DEFAULT-VALUE}).")
+    int analyzeRounds = 3;
+
+    @Option(names = "--memory-cases", paramLabel = "A,B", split = ",",
+        description = "Case counts of the two studies whose peak memory is compared (default: 20,80).")
+    int[] memoryCases = {20, 80};
+
+    @Option(names = "--child-xmx", paramLabel = "SIZE",
+        description = "Maximum heap of each child JVM of the memory comparison (default: ${DEFAULT-VALUE}).")
+    String childXmx = "1536m";
+
     @Override
     public Integer call() throws Exception {
         if (size.length != 3 || spacing.length != 3) {
             throw new CommandLine.ParameterException(spec.commandLine(), "--size and --spacing need three values X,Y,Z");
         }
-        if (threads < 1 || rounds < 1 || warmup < 0 || cases < 1) {
+        if (memoryCases.length != 2 || memoryCases[0] < 1 || memoryCases[1] < 1) {
+            throw new CommandLine.ParameterException(spec.commandLine(), "--memory-cases needs two positive counts A,B");
+        }
+        if (!childXmx.matches("[0-9]+[kKmMgG]?")) {
+            throw new CommandLine.ParameterException(spec.commandLine(), "--child-xmx must look like 1536m or 2g");
+        }
+        if (threads < 1 || rounds < 1 || warmup < 0 || cases < 1 || analyzeCases < 1 || analyzeRounds < 1) {
             throw new CommandLine.ParameterException(spec.commandLine(),
                 "--threads, --rounds and --cases must be at least 1, --warmup at least 0");
         }
@@ -99,8 +125,53 @@ public final class BenchCommand implements Callable<Integer> {
             CaseBench.Result r = CaseBench.run(study, threads, warmup, rounds, what != What.agreement);
             printCases(w, r, what != What.consensus, what != What.agreement);
         }
+        if (what == What.analyze || what == What.all) {
+            w.println();
+            analyze(w);
+        }
         w.flush();
         return ExitCodes.OK;
+    }
+
+    void analyze(PrintWriter w) throws Exception {
+        DemoSpec demo = BenchStudies.spec(analyzeCases, size, spacing);
+        Path folder = prepare(w, demo);
+        Study study = StudyLoader.load(folder, LoadOptions.DEFAULT);
+        w.printf(Locale.ROOT, "end to end: load average now %s; threads %d; %d warm-up round(s), median of %d%n",
+            Machine.loadNow(), threads, warmup, analyzeRounds);
+        w.println("  analyze = library pipeline (StudyAnalysis) with real outputs into a temporary folder: "
+            + AnalyzeBench.OUTPUTS);
+        w.println("  read = every mask of the study read and inflated through the real readers, same threads");
+        w.flush();
+        AnalyzeBench.Result a = AnalyzeBench.run(study, BenchStudies.protocol(), threads, warmup, analyzeRounds);
+        w.printf(Locale.ROOT, "  %d cases, %d masks: analyze %.1f s, read %.1f s%n", a.cases(), a.masks(),
+            a.analyzeNs() / 1e9, a.readNs() / 1e9);
+        w.printf(Locale.ROOT, "%-66s %7.2fx %9s %s%n", "end-to-end analyze / read", a.ratio(), "<= 3.0x",
+            verdict(a.ratio() <= 3.0, threads));
+        w.flush();
+        long[] peak = new long[2];
+        long[] ms = new long[2];
+        for (int i = 0; i < 2; i++) {
+            Path f = prepare(w, BenchStudies.spec(memoryCases[i], size, spacing));
+            ChildJvm.Outcome o = ChildJvm.run(childXmx, AnalyzeProbe.class, List.of(f.toString(),
+                Integer.toString(threads)));
+            if (o.exitCode() != 0) {
+                throw new IllegalStateException("child JVM failed (exit " + o.exitCode() + "): " + o.stderr().strip());
+            }
+            peak[i] = o.number("VMHWM_KIB");
+            ms[i] = o.number("ELAPSED_MS");
+            w.printf(Locale.ROOT, "  child JVM -Xmx%s, %d cases: analyze %.1f s, peak resident memory (VmHWM) %.0f MiB%n",
+                childXmx, memoryCases[i], ms[i] / 1e3, peak[i] / 1024.0);
+            w.flush();
+        }
+        if (peak[0] > 0 && peak[1] > 0) {
+            double ratio = (double) peak[1] / peak[0];
+            w.printf(Locale.ROOT, "%-66s %7.2fx %9s %s%n", String.format(Locale.ROOT,
+                "peak resident memory, %d cases / %d cases", memoryCases[1], memoryCases[0]), ratio, "within 20%",
+                Math.abs(ratio - 1) <= 0.20 ? "yes" : "NO");
+        } else {
+            w.println("peak resident memory: not available on this system (no /proc/self/status)");
+        }
     }
 
     Path prepare(PrintWriter w, DemoSpec demo) throws java.io.IOException, InputException {

@@ -3,6 +3,7 @@ package org.accordia.cli;
 import java.io.PrintWriter;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
+import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.accordia.bench.BinomialInterval;
@@ -105,6 +106,9 @@ public final class CalibrateCommand implements Callable<Integer> {
     }
 
     static String largestEffect(Calibration.Run x) {
+        if (x.failed()) {
+            return null;
+        }
         return x.outcome().centreEffects().stream().filter(e -> !Double.isNaN(e.signedSurfaceMm()))
             .max(java.util.Comparator.comparingDouble(e -> Math.abs(e.signedSurfaceMm())))
             .map(org.accordia.shift.GroupEffect::group).orElse(null);
@@ -134,40 +138,46 @@ public final class CalibrateCommand implements Callable<Integer> {
         w.printf(Locale.ROOT, "power (right centre and direction): %d / %d = %.4f, 95%% CI [%.4f, %.4f] (Clopper-Pearson)%n",
             pw.successes(), pw.trials(), pw.rate(), pw.lower(), pw.upper());
         w.printf(Locale.ROOT, "  criterion: >= 0.90  -> %s%n", r.powerPasses() ? "PASS" : "FAIL");
+        List<Calibration.Run> failed = r.failedRuns();
+        w.printf(Locale.ROOT, "failed analyses: %d (counted as neither a flag nor a detection)%n", failed.size());
+        for (Calibration.Run f : failed.subList(0, Math.min(10, failed.size()))) {
+            w.printf(Locale.ROOT, "  %s run %d (generator seed %d): %s%n", f.shifted() ? "shifted" : "null", f.index(),
+                f.generatorSeed(), f.error());
+        }
         w.println();
         w.println("diagnostics:");
-        long nullTest = r.nullRuns().stream().filter(x -> x.outcome().pValue() <= s.alpha()).count();
+        long nullTest = r.nullRuns().stream().filter(x -> !x.failed() && x.outcome().pValue() <= s.alpha()).count();
         BinomialInterval nt = BinomialInterval.of95((int) nullTest, s.runs());
         w.printf(Locale.ROOT, "  null runs with permutation p <= alpha (test alone): %d / %d = %.4f, 95%% CI [%.4f, %.4f]%n",
             nullTest, s.runs(), nt.rate(), nt.lower(), nt.upper());
-        long shiftTest = r.shiftedRuns().stream().filter(x -> x.outcome().pValue() <= s.alpha()).count();
+        long shiftTest = r.shiftedRuns().stream().filter(x -> !x.failed() && x.outcome().pValue() <= s.alpha()).count();
         w.printf(Locale.ROOT, "  shifted runs with permutation p <= alpha: %d / %d; flagged at all: %d / %d;"
             + " flagged but wrong centre or direction: %d%n", shiftTest, s.runs(), r.shiftedFlags(), s.runs(),
             r.shiftedFlags() - r.correctDetections());
-        long among = r.shiftedRuns().stream().filter(x -> x.outcome().flaggedCentres().contains(r.shiftedCentre()))
+        long among = r.shiftedRuns().stream().filter(x -> !x.failed() && x.outcome().flaggedCentres().contains(r.shiftedCentre()))
             .count();
         long largest = r.shiftedRuns().stream().filter(x -> r.shiftedCentre().equals(largestEffect(x))).count();
-        long all = r.shiftedRuns().stream().filter(x -> x.outcome().flaggedCentres().size() == x.outcome()
+        long all = r.shiftedRuns().stream().filter(x -> !x.failed() && x.outcome().flaggedCentres().size() == x.outcome()
             .centreEffects().size()).count();
         w.printf(Locale.ROOT, "  shifted runs: shifted centre among the flagged centres %d / %d; shifted centre has the"
             + " largest |signed-surface effect| %d / %d; every centre flagged %d / %d%n", among, s.runs(), largest,
             s.runs(), all, s.runs());
-        double[] eff = r.shiftedRuns().stream().flatMap(x -> x.outcome().centreEffects().stream()
+        double[] eff = r.shiftedRuns().stream().filter(x -> !x.failed()).flatMap(x -> x.outcome().centreEffects().stream()
             .filter(e -> e.group().equals(r.shiftedCentre()))).mapToDouble(e -> e.signedSurfaceMm()).toArray();
-        double[] others = r.shiftedRuns().stream().flatMap(x -> x.outcome().centreEffects().stream()
+        double[] others = r.shiftedRuns().stream().filter(x -> !x.failed()).flatMap(x -> x.outcome().centreEffects().stream()
             .filter(e -> !e.group().equals(r.shiftedCentre()))).mapToDouble(e -> e.signedSurfaceMm()).toArray();
-        double[] lo = r.shiftedRuns().stream().flatMap(x -> x.outcome().centreEffects().stream()
+        double[] lo = r.shiftedRuns().stream().filter(x -> !x.failed()).flatMap(x -> x.outcome().centreEffects().stream()
             .filter(e -> e.group().equals(r.shiftedCentre()))).mapToDouble(e -> e.signedSurfaceLoMm()).toArray();
         w.printf(Locale.ROOT, "  shifted centre's signed-surface effect: median %.3f mm (lower interval limit median %.3f mm)"
             + " against the planted %+.2f mm%n", org.accordia.bench.Medians.of(eff), org.accordia.bench.Medians.of(lo),
             s.shiftMm());
         w.printf(Locale.ROOT, "  the other centres' signed-surface effects in the shifted runs: median %.3f mm%n",
             org.accordia.bench.Medians.of(others));
-        double[] nullMax = r.nullRuns().stream().mapToDouble(x -> x.outcome().centreEffects().stream()
+        double[] nullMax = r.nullRuns().stream().filter(x -> !x.failed()).mapToDouble(x -> x.outcome().centreEffects().stream()
             .mapToDouble(e -> Math.abs(e.signedSurfaceMm())).max().orElse(Double.NaN)).toArray();
         w.printf(Locale.ROOT, "  null runs: median of the largest |centre effect| %.3f mm%n",
             org.accordia.bench.Medians.of(nullMax));
-        double[] nullAll = r.nullRuns().stream().flatMap(x -> x.outcome().centreEffects().stream())
+        double[] nullAll = r.nullRuns().stream().filter(x -> !x.failed()).flatMap(x -> x.outcome().centreEffects().stream())
             .mapToDouble(e -> e.signedSurfaceMm()).toArray();
         w.printf(Locale.ROOT, "  null runs: median centre effect %.3f mm (0 expected without a systematic bias of the"
             + " reference)%n", org.accordia.bench.Medians.of(nullAll));
