@@ -69,6 +69,11 @@ public final class CalibrateCommand implements Callable<Integer> {
         description = "Standard deviation of the smooth boundary noise, mm (default: ${DEFAULT-VALUE}).")
     double noiseMm = DemoSpec.defaults().noiseAmplitudeMm();
 
+    @Option(names = "--consensus-region", paramLabel = "REGION",
+        description = "Where STAPLE runs: grid or union_margin (protocol key consensus.region; default: the protocol"
+            + " default, ${DEFAULT-VALUE}).")
+    String region = org.accordia.study.Protocol.defaults().consensus().region().key();
+
     @Option(names = "--full-resampling",
         description = "Keep the variance-component bootstraps at their defaults (slower; they do not enter the flag).")
     boolean fullResampling;
@@ -88,7 +93,10 @@ public final class CalibrateCommand implements Callable<Integer> {
         try {
             base = new DemoSpec(seed, cases, 3, 3, size[0], size[1], size[2], spacing[0], spacing[1], spacing[2], 0, 0,
                 0, readerBiasMm, noiseMm);
-            runner = new SimulatedStudies(!fullResampling);
+            org.accordia.study.Protocol.ConsensusRegion cr = java.util.Arrays.stream(
+                    org.accordia.study.Protocol.ConsensusRegion.values()).filter(x -> x.key().equals(region)).findFirst()
+                .orElseThrow(() -> new IllegalArgumentException("--consensus-region must be grid or union_margin"));
+            runner = new SimulatedStudies(!fullResampling, cr);
             settings = new Calibration.Settings(runs, seed, threads, shiftMm, runner.alpha(), base);
         } catch (IllegalArgumentException e) {
             throw new CommandLine.ParameterException(spec.commandLine(), e.getMessage());
