@@ -80,15 +80,22 @@ public final class StudyAnalysis {
     private StudyAnalysis() {
     }
 
-    /** The shift settings a protocol implies (bootstrap resamples from the consensus section). */
+    /**
+     * The shift settings a protocol implies. Resampling sizes follow the protocol's
+     * {@code consensus.bootstrap_resamples} (B, default 2000): B case-bootstrap resamples for the
+     * centre and reader effects, and B/10 (at most the documented defaults 200 and 199) parametric
+     * bootstrap resamples for the variance-component intervals and the test of σ²_centre = 0.
+     */
     public static ShiftSettings shiftSettings(Protocol p) {
         Protocol.Shift s = p.shift();
         Protocol.Review r = p.review();
         return new ShiftSettings(s.alpha(), s.minimumShiftMm(), s.minimumVolumeShiftPercent(), r.adjudicationDice(),
             r.adjudicationHd95Mm(), r.adjudicationShareForReview(), r.recalibrationToleranceMm(),
             r.recalibrationVolumePercent(), s.permutations(), ShiftSettings.DEFAULT_EXACT_LIMIT,
-            p.consensus().bootstrapResamples(), ShiftSettings.DEFAULT_VARIANCE_RESAMPLES,
-            ShiftSettings.DEFAULT_CENTRE_TEST_RESAMPLES, p.seed());
+            p.consensus().bootstrapResamples(),
+            Math.min(ShiftSettings.DEFAULT_VARIANCE_RESAMPLES, p.consensus().bootstrapResamples() / 10),
+            Math.min(ShiftSettings.DEFAULT_CENTRE_TEST_RESAMPLES, p.consensus().bootstrapResamples() / 10 - 1),
+            p.seed());
     }
 
     /** As {@link #run(CaseSource, Protocol, AnalysisOptions, CaseSink, Runnable)} without a sink. */
@@ -140,15 +147,15 @@ public final class StudyAnalysis {
         TreeSet<ReaderId> readers = new TreeSet<>();
         cases.forEach(c -> readers.addAll(c.readers()));
         Map<ReaderId, String> keys = readerKeys(readers);
-        List<LabelResult> labels = new ArrayList<>();
-        for (int s = 0; s < structures.size(); s++) {
-            labels.add(studyLevel(s, structures.get(s), cases, readers, keys, protocol, settings,
-                options.readerSummaries()));
-        }
+        // structures are independent at the study level: one task each, results in protocol order
+        LabelResult[] labels = new LabelResult[structures.size()];
+        List<String> labelIds = structures.stream().map(Structure::name).toList();
+        forEachCase(labelIds, options.threads(), s -> labels[s] = studyLevel(s, structures.get(s), cases, readers,
+            keys, protocol, settings, options.readerSummaries()));
         TreeSet<String> centres = new TreeSet<>();
         readers.forEach(r -> centres.add(r.centre()));
         return new StudyResult(protocol.withSeed(settings.seed()), settings, structures, List.copyOf(readers),
-            List.copyOf(centres), cases, labels, events(cases, source.missing()),
+            List.copyOf(centres), cases, List.of(labels), events(cases, source.missing()),
             staple.region(), undecided);
     }
 
@@ -160,7 +167,7 @@ public final class StudyAnalysis {
     }
 
     /**
-     * Runs {@code task} for every case over a pool of {@code threads} workers; a case is only
+     * Runs {@code task} for every case (or structure) over a pool of {@code threads} workers; a case is only
      * started when fewer than {@code threads} cases are in flight (semaphore), so at most that
      * many cases are in memory. The first failure stops new cases and is rethrown.
      */
@@ -492,19 +499,18 @@ public final class StudyAnalysis {
                     }
                 }
                 if (!mirrored.isEmpty()) {
+                    String side = top.signedSurfaceMm() >= 0 ? "outside" : "inside";
+                    String other = top.signedSurfaceMm() >= 0 ? "inside" : "outside";
                     notes.add(String.format(Locale.ROOT,
-                        "The primary finding is centre %s, which draws %.1f mm %s the other centres. %s %s the "
-                            + "other way by a smaller amount: each centre is compared with the consensus of the OTHER "
-                            + "centres, which includes %s, so when one of %d centres draws %.1f mm %s, each other "
-                            + "centre appears about %.1f mm %s (%.1f / %d). This is mostly a mirror of %s's shift, "
-                            + "not a finding about %s.",
-                        top.group(), Math.abs(top.signedSurfaceMm()), top.signedSurfaceMm() >= 0 ? "outside" : "inside",
+                        "The primary finding is centre %s, which draws %.1f mm %s the other centres. %s the other "
+                            + "way by a smaller amount. That is expected: each centre is compared with the consensus "
+                            + "of the OTHER centres, which includes %s, so when one of %d centres draws Δ mm %s, the "
+                            + "others appear shifted %s by up to about Δ/(G−1) = %.1f mm. Read these smaller opposite "
+                            + "effects as a mirror of %s's shift, not as findings of their own.",
+                        top.group(), Math.abs(top.signedSurfaceMm()), side,
                         mirrored.size() == 1 ? "Centre " + mirrored.get(0) + " appears shifted"
                             : "Centres " + String.join(", ", mirrored) + " appear shifted",
-                        "", top.group(), g, Math.abs(top.signedSurfaceMm()),
-                        top.signedSurfaceMm() >= 0 ? "outside" : "inside", expected,
-                        top.signedSurfaceMm() >= 0 ? "inside" : "outside", Math.abs(top.signedSurfaceMm()), g - 1,
-                        top.group(), mirrored.size() == 1 ? "that centre" : "those centres").replace("  ", " "));
+                        top.group(), g, side, other, expected, top.group()));
                 }
             }
         }

@@ -18,6 +18,7 @@ import picocli.CommandLine.Command;
     subcommands = {
         CommandLine.HelpCommand.class,
         InspectCommand.class,
+        AnalyzeCommand.class,
         DemoCommand.class,
         BenchCommand.class,
         CalibrateCommand.class

@@ -54,7 +54,26 @@ public final class DemoGenerator {
     private static final double HARD_NOISE_MM = 3.0;
     private static final double HARD_BIAS_MM = 2.5;
 
+    /** The protocol written into every generated study (the same text as protocols/demo.yaml). */
+    public static final String PROTOCOL_FILE = "protocol.yaml";
+    private static final String PROTOCOL_RESOURCE = "protocol.yaml";
+
     private DemoGenerator() {
+    }
+
+    /**
+     * The demo study's protocol: the classpath resource {@code org/accordia/demo/protocol.yaml},
+     * the one source of {@code protocols/demo.yaml} (a test checks they are identical).
+     */
+    public static String protocolYaml() {
+        try (var in = DemoGenerator.class.getResourceAsStream(PROTOCOL_RESOURCE)) {
+            if (in == null) {
+                throw new IllegalStateException("resource " + PROTOCOL_RESOURCE + " is missing from the build");
+            }
+            return new String(in.readAllBytes(), StandardCharsets.UTF_8);
+        } catch (IOException e) {
+            throw new java.io.UncheckedIOException(e);
+        }
     }
 
     /** Centre names for a spec, in order. */
@@ -166,6 +185,7 @@ public final class DemoGenerator {
             pool.shutdownNow();
         }
         writeAtomically(outDir.resolve("manifest.csv"), manifest.toString());
+        writeAtomically(outDir.resolve(PROTOCOL_FILE), protocolYaml());
         DemoTruth truth = plan.truth;
         writeAtomically(outDir.resolve(DemoTruth.FILE_NAME), DemoTruth.mapper().writeValueAsString(truth) + "\n");
         return truth;

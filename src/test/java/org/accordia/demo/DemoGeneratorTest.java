@@ -355,6 +355,14 @@ class DemoGeneratorTest {
         }
     }
 
+    /** protocols/demo.yaml is the generator's protocol resource, byte for byte (one source). */
+    @Test
+    void demoProtocolFileEqualsTheResource() throws Exception {
+        assertEquals(DemoGenerator.protocolYaml(), Files.readString(Path.of("protocols/demo.yaml")));
+        org.accordia.study.Protocol p = org.accordia.study.Protocol.load(Path.of("protocols/demo.yaml"));
+        assertEquals(2, p.structures().size());
+    }
+
     /** The committed demo-masks/ is exactly what `accordia demo --out demo-masks` writes (docs/demo.md). */
     @Test
     void committedDemoStudyMatchesTheDefaultGeneration(@TempDir Path tmp) throws Exception {

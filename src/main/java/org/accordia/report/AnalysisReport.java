@@ -1,0 +1,533 @@
+package org.accordia.report;
+
+import java.io.IOException;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import org.accordia.agreement.PairMetrics;
+import org.accordia.analysis.CaseRecord;
+import org.accordia.analysis.CaseSource;
+import org.accordia.analysis.FlaggedEvent;
+import org.accordia.analysis.InputChecksums;
+import org.accordia.analysis.LabelResult;
+import org.accordia.analysis.MissedStructure;
+import org.accordia.analysis.StructureCase;
+import org.accordia.analysis.StudyResult;
+import org.accordia.consensus.ReaderPerformance;
+import org.accordia.consensus.ReaderSummary;
+import org.accordia.io.ImageVolume;
+import org.accordia.io.InputException;
+import org.accordia.shift.CaseToAdjudicate;
+import org.accordia.shift.GroupEffect;
+import org.accordia.shift.ReaderToRecalibrate;
+import org.accordia.shift.ShiftSettings;
+import org.accordia.shift.VarianceComponents;
+import org.accordia.shift.Verdict;
+import org.accordia.shift.VerdictRules;
+import org.accordia.study.ReaderId;
+
+/**
+ * Writes every study-level output of a run into the output folder: the CSV tables
+ * ({@link Tables}), {@code summary.json} ({@link SummaryJson}) and {@code report.html}: the
+ * decision per label with its rule and evidence, what to do next (cases to adjudicate, readers to
+ * recalibrate, centres to discuss), the charts, the pictures of the most contentious cases, the
+ * flagged events, the methods with the settings and input checksums, and the cautions.
+ * The consensus volumes are written per case by {@link ConsensusFiles}.
+ */
+public final class AnalysisReport {
+    /** Pictures in the report. */
+    public static final int PICTURES = 3;
+    /** Most flagged events listed in the HTML (all are in events.csv). */
+    static final int MAX_EVENTS_SHOWN = 60;
+    private static final int WIDTH = 760;
+
+    private AnalysisReport() {
+    }
+
+    /**
+     * What the run knows beyond the result.
+     *
+     * @param version the tool's version
+     * @param inputs checksums of every input file
+     * @param protocolSource where the protocol came from, in words (e.g. "protocol.yaml in the study")
+     */
+    public record RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource) {
+        public RunInfo {
+            inputs = List.copyOf(inputs);
+        }
+    }
+
+    /** Writes the tables, summary.json and report.html. */
+    public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source,
+            RunInfo info) throws IOException, InputException {
+        out.writeAtomically("pairs.csv", Tables.pairs(r)::write);
+        out.writeAtomically("readers.csv", Tables.readers(r)::write);
+        out.writeAtomically("centres.csv", Tables.centres(r)::write);
+        out.writeAtomically("cases.csv", Tables.cases(r)::write);
+        out.writeAtomically("reader_summary.csv", Tables.readerSummary(r)::write);
+        out.writeAtomically("events.csv", Tables.events(r)::write);
+        out.writeAtomically(OutputFolder.SUMMARY_JSON, o -> JsonOutput.write(SummaryJson.of(r, info.version(), info.inputs()), o));
+        String html = html(r, pictures, source, info);
+        out.writeString(OutputFolder.REPORT_HTML, html);
+    }
+
+    /** The HTML report. */
+    public static String html(StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source, RunInfo info)
+            throws InputException {
+        String study = r.protocol().study() == null ? "Study" : r.protocol().study();
+        HtmlReport h = new HtmlReport(study + ": agreement, consensus and annotation shift")
+            .subtitle(String.format(Locale.ROOT, "%d cases · %d readers · %d centres · %d structure%s (%s)",
+                r.cases().size(), r.readers().size(), r.centres().size(), r.structures().size(),
+                r.structures().size() == 1 ? "" : "s",
+                String.join(", ", r.structures().stream().map(s -> s.name()).toList())))
+            .generatedBy("Accordia " + info.version());
+        decision(h, r);
+        nextSteps(h, r);
+        charts(h, r);
+        pictures(h, r, pictures, source);
+        events(h, r);
+        methods(h, r, info);
+        for (String c : SummaryJson.CAUTIONS) {
+            h.caution(c);
+        }
+        return h.toHtml();
+    }
+
+    // ------------------------------------------------------------------ decision
+
+    static HtmlReport.Level level(Verdict v) {
+        return switch (v) {
+            case POOL -> HtmlReport.Level.POOL;
+            case REVIEW -> HtmlReport.Level.REVIEW;
+            case RE_ANNOTATE -> HtmlReport.Level.REANNOTATE;
+        };
+    }
+
+    static String verdictWords(Verdict v) {
+        return switch (v) {
+            case POOL -> "pool: the masks can be pooled";
+            case REVIEW -> "review before pooling";
+            case RE_ANNOTATE -> "re-annotate (or harmonise) before pooling";
+        };
+    }
+
+    private static void decision(HtmlReport h, StudyResult r) {
+        h.section("Decision");
+        h.paragraph("One decision per structure, with the rule that fired first and its evidence. "
+            + "Rules are checked in a fixed order (see Methods); every rule that fired is listed.");
+        for (LabelResult l : r.labels()) {
+            var s = l.summary();
+            String first = s.reasons().isEmpty() ? "" : s.reasons().get(0);
+            h.callout(level(s.verdict()), l.name() + " — " + verdictWords(s.verdict()),
+                "Rule: " + s.rule() + ". " + first);
+            List<String> items = new ArrayList<>();
+            for (int i = 1; i < s.reasons().size(); i++) {
+                items.add(s.reasons().get(i));
+            }
+            if (!l.centreNotes().isEmpty()) {
+                items.add("On the centres' opposite effects: see Centres to discuss.");
+            }
+            if (!items.isEmpty()) {
+                h.list(items);
+            }
+        }
+    }
+
+    // ------------------------------------------------------------------ what to do next
+
+    private static void nextSteps(HtmlReport h, StudyResult r) {
+        h.section("What to do next");
+        h.subsection("Cases to adjudicate");
+        List<List<String>> rows = new ArrayList<>();
+        for (LabelResult l : r.labels()) {
+            for (CaseToAdjudicate c : l.summary().casesToAdjudicate()) {
+                rows.add(List.of(l.name(), c.caseId(), String.join("; ", c.reasons())));
+            }
+        }
+        if (rows.isEmpty()) {
+            h.paragraph("No case needs adjudication.");
+        } else {
+            h.table(null, List.of("Structure", "Case", "Why"), rows, null);
+        }
+
+        h.subsection("Readers to recalibrate");
+        rows = new ArrayList<>();
+        for (LabelResult l : r.labels()) {
+            for (MissedStructure m : l.missedStructure()) {
+                List<String> parts = new ArrayList<>();
+                for (int i = 0; i < m.cases().size(); i++) {
+                    parts.add(String.format(Locale.ROOT, "%s (%s ml; sensitivity %s vs the others' median %s)",
+                        m.cases().get(i), two(m.partsMl().get(i)),
+                        two(m.sensitivities().get(i)), two(m.othersMedian().get(i))));
+                }
+                rows.add(List.of(l.name(), m.reader(), m.centre(),
+                    "Leaves out a whole part of " + l.name() + " that most readers mark (e.g. a small second lesion), in "
+                        + m.cases().size() + " case" + (m.cases().size() == 1 ? "" : "s") + ": " + String.join(", ", parts)
+                        + "."));
+            }
+            for (ReaderToRecalibrate rr : l.summary().readersToRecalibrate()) {
+                rows.add(List.of(l.name(), rr.reader(), rr.centre(), capitalise(String.join("; ", rr.reasons())) + "."));
+            }
+        }
+        if (rows.isEmpty()) {
+            h.paragraph("No reader departs systematically from the others.");
+        } else {
+            h.paragraph("Readers who leave out whole parts of a structure come first; then readers whose margin or "
+                + "volume departs from the other readers' consensus by more than the tolerance over the whole "
+                + "interval. A reader at a shifted centre is listed here too when the centre's shift is large: "
+                + "discuss the centre first.");
+            h.table(null, List.of("Structure", "Reader", "Centre", "Why"), rows, null);
+        }
+
+        h.subsection("Centres to discuss");
+        rows = new ArrayList<>();
+        for (LabelResult l : r.labels()) {
+            List<GroupEffect> effects = new ArrayList<>(l.shift().centreEffects());
+            effects.sort(Comparator.comparingDouble((GroupEffect e) -> Double.isNaN(e.signedSurfaceMm())
+                ? 0 : -Math.abs(e.signedSurfaceMm())).thenComparing(GroupEffect::group));
+            Map<String, String> flags = flagsOf(l);
+            for (GroupEffect e : effects) {
+                String flag = flags.getOrDefault(e.group(), VerdictRules.FLAG_NONE);
+                if (flag.equals(VerdictRules.FLAG_NONE)) {
+                    continue;
+                }
+                rows.add(List.of(l.name(), e.group(), flag, capitalise(e.describe("the other centres")) + "."));
+            }
+        }
+        if (rows.isEmpty()) {
+            h.paragraph("No centre's effect reaches the minimum shift.");
+        } else {
+            h.paragraph("Largest effect first. Each centre is compared with the consensus of the other centres "
+                + "(95% case-bootstrap intervals in brackets); positive distances mean the centre draws outside "
+                + "(wider), negative inside.");
+            h.table(null, List.of("Structure", "Centre", "Flag", "Effect"), rows, null);
+            for (LabelResult l : r.labels()) {
+                for (String n : l.centreNotes()) {
+                    h.paragraph(l.name() + ": " + n);
+                }
+            }
+        }
+    }
+
+    private static Map<String, String> flagsOf(LabelResult l) {
+        Map<String, String> m = new java.util.TreeMap<>();
+        l.shift().centreRows().forEach(c -> m.put(c.centre(), c.flag()));
+        return m;
+    }
+
+    // ------------------------------------------------------------------ charts
+
+    private static void charts(HtmlReport h, StudyResult r) {
+        ShiftSettings s = r.shiftSettings();
+        List<String> names = r.readers().stream().map(ReaderId::reader).toList();
+        List<String> centres = r.readers().stream().map(ReaderId::centre).toList();
+        h.section("Agreement between readers");
+        for (LabelResult l : r.labels()) {
+            double[][] m = meanDice(r, l.index() - 1);
+            h.figure(Charts.agreementMatrix(names, centres, m, "Mean pairwise Dice, " + l.name(), WIDTH, 620),
+                "Mean Dice over the cases both readers drew, readers grouped by centre. A block pattern (higher "
+                    + "agreement within centres) points to centre conventions.",
+                "Reader by reader matrix of mean Dice for " + l.name());
+        }
+        h.section("Centre effects");
+        for (LabelResult l : r.labels()) {
+            List<GroupEffect> e = l.shift().centreEffects();
+            List<String> g = e.stream().map(GroupEffect::group).toList();
+            h.figure(Charts.intervalPlot(g, e.stream().mapToDouble(GroupEffect::signedSurfaceMm).toArray(),
+                    e.stream().mapToDouble(GroupEffect::signedSurfaceLoMm).toArray(),
+                    e.stream().mapToDouble(GroupEffect::signedSurfaceHiMm).toArray(),
+                    "Signed surface distance to the other centres' consensus (mm)", 0, s.minimumShiftMm(),
+                    "Centre margin, " + l.name(), WIDTH, 120 + 50 * g.size()),
+                String.format(Locale.ROOT, "Mean signed surface distance of each centre's readers to the consensus of "
+                    + "the other centres, with 95%% case-bootstrap intervals; positive = wider. Shaded: ±%s mm, the "
+                    + "smallest shift that matters.", Numbers.format(s.minimumShiftMm())),
+                "Forest plot of centre margin shifts for " + l.name());
+            h.figure(Charts.intervalPlot(g, e.stream().mapToDouble(GroupEffect::volumeRatio).toArray(),
+                    e.stream().mapToDouble(GroupEffect::volumeRatioLo).toArray(),
+                    e.stream().mapToDouble(GroupEffect::volumeRatioHi).toArray(),
+                    "Volume ratio to the other centres' consensus (1 = same)", 1, s.minimumVolumeShiftPercent() / 100,
+                    "Centre volume, " + l.name(), WIDTH, 120 + 50 * g.size()),
+                String.format(Locale.ROOT, "Geometric-mean volume ratio of each centre's readers to the other centres' "
+                    + "consensus, with 95%% intervals. Shaded: ±%s%%, the smallest volume shift that matters.",
+                    Numbers.format(s.minimumVolumeShiftPercent())),
+                "Forest plot of centre volume ratios for " + l.name());
+        }
+        h.section("Readers");
+        for (LabelResult l : r.labels()) {
+            List<ReaderSummary> rs = l.readerSummaries().stream()
+                .filter(x -> x.reference().equals(ReaderPerformance.REFERENCE_OTHERS)).toList();
+            if (rs.isEmpty()) {
+                continue;
+            }
+            h.figure(Charts.scatter(rs.stream().map(ReaderSummary::reader).toList(),
+                    rs.stream().map(ReaderSummary::centre).toList(),
+                    rs.stream().mapToDouble(ReaderSummary::meanSpecificity).toArray(),
+                    rs.stream().mapToDouble(ReaderSummary::meanSensitivity).toArray(),
+                    "Specificity (within the STAPLE region)", "Sensitivity", "Readers against the others' consensus, "
+                        + l.name(), WIDTH, 520),
+                "Each reader's mean sensitivity and specificity against the STAPLE consensus of the other readers "
+                    + "(leave-one-reader-out), over cases; specificity counts voxels within the STAPLE region ("
+                    + r.stapleRegion() + ").",
+                "Scatter of reader sensitivity against specificity for " + l.name());
+            List<List<String>> rows = new ArrayList<>();
+            for (ReaderSummary x : rs) {
+                rows.add(List.of(x.reader(), x.centre(), Integer.toString(x.cases()),
+                    withInterval(x.meanSensitivity(), x.sensitivityLo(), x.sensitivityHi()),
+                    withInterval(x.meanDice(), x.diceLo(), x.diceHi()),
+                    withInterval(x.meanSignedSurfaceMm(), x.signedSurfaceLoMm(), x.signedSurfaceHiMm()),
+                    withInterval(x.geoMeanVolumeRatio(), x.volumeRatioLo(), x.volumeRatioHi())));
+            }
+            h.table("Readers against the other readers' consensus, " + l.name() + " (mean [95% interval])",
+                List.of("Reader", "Centre", "Cases", "Sensitivity", "Dice", "Signed surface (mm)", "Volume ratio"),
+                rows, new boolean[] {false, false, true, true, true, true, true});
+        }
+        h.section("Where the disagreement lies");
+        List<String> cats = new ArrayList<>();
+        List<double[]> vals = new ArrayList<>();
+        List<String> comps = List.of(VarianceComponents.CASE, VarianceComponents.CENTRE, VarianceComponents.READER,
+            VarianceComponents.RESIDUAL);
+        for (LabelResult l : r.labels()) {
+            VarianceComponents.Result vc = l.shift().varianceComponents();
+            if (vc == null) {
+                continue;
+            }
+            double[] v = new double[comps.size()];
+            for (int k = 0; k < comps.size(); k++) {
+                String name = comps.get(k);
+                v[k] = vc.components().stream().filter(c -> c.name().equals(name))
+                    .mapToDouble(VarianceComponents.Component::estimate).findFirst().orElse(Double.NaN);
+            }
+            cats.add(l.name());
+            vals.add(v);
+        }
+        if (!cats.isEmpty()) {
+            h.figure(Charts.stackedShares(cats, List.of("case", "centre", "reader within centre", "residual"),
+                    vals.toArray(new double[0][]), "Variance components of the signed surface distance", WIDTH,
+                    110 + 60 * cats.size()),
+                "Shares of the variance of each reader's signed surface distance (against the other centres' "
+                    + "consensus) taken by cases, centres, readers within centres and the rest (REML fit). A large "
+                    + "centre share means the centres draw differently.",
+                "Stacked bars of variance components per structure");
+        }
+        for (LabelResult l : r.labels()) {
+            List<String> cases = new ArrayList<>();
+            double[] v = new double[r.cases().size()];
+            int k = 0;
+            for (CaseRecord c : r.cases()) {
+                cases.add(c.caseId());
+                v[k++] = 1 - c.structures().get(l.index() - 1).agreement().medianDice();
+            }
+            h.figure(Charts.rankedBars(cases, v, 1 - s.adjudicationDice(), "1 − median pairwise Dice",
+                    "Cases ranked by disagreement, " + l.name(), WIDTH, 380),
+                String.format(Locale.ROOT, "Cases above the line (median pairwise Dice below %s) go to adjudication; "
+                    + "a case can also go there for a large HD95 or an empty mask (see the table above).",
+                    Numbers.format(s.adjudicationDice())),
+                "Bar chart of cases ranked by disagreement for " + l.name());
+        }
+    }
+
+    /** Mean pairwise Dice of every reader pair over the cases both drew (NaN when none). */
+    static double[][] meanDice(StudyResult r, int s) {
+        int n = r.readers().size();
+        double[][] sum = new double[n][n];
+        int[][] count = new int[n][n];
+        Map<String, Integer> index = new java.util.HashMap<>();
+        for (int i = 0; i < n; i++) {
+            index.put(r.readers().get(i).label(), i);
+        }
+        for (CaseRecord c : r.cases()) {
+            for (PairMetrics p : c.structures().get(s).agreement().pairs()) {
+                int a = index.get(p.centreA() + "/" + p.readerA());
+                int b = index.get(p.centreB() + "/" + p.readerB());
+                sum[a][b] += p.dice();
+                sum[b][a] += p.dice();
+                count[a][b]++;
+                count[b][a]++;
+            }
+        }
+        double[][] m = new double[n][n];
+        for (int i = 0; i < n; i++) {
+            for (int j = 0; j < n; j++) {
+                m[i][j] = i == j ? 1 : count[i][j] == 0 ? Double.NaN : sum[i][j] / count[i][j];
+            }
+        }
+        return m;
+    }
+
+    // ------------------------------------------------------------------ pictures
+
+    private static void pictures(HtmlReport h, StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source)
+            throws InputException {
+        h.section("The most contentious cases");
+        if (pictures.isEmpty()) {
+            h.paragraph("No picture: no case has two readers with a non-empty mask.");
+            return;
+        }
+        h.paragraph("For the cases with the lowest median pairwise Dice: the axial slice with the most voxels "
+            + "marked by some readers but not all, every reader's contour drawn over the case's image (or, when "
+            + "the study has no image, over the STAPLE probability map). Colours tell readers apart, line styles "
+            + "centres (legend in each picture).");
+        int shown = 0;
+        for (ConsensusFiles.Picture p : pictures) {
+            if (shown++ >= PICTURES) {
+                break;
+            }
+            var g = p.geometry();
+            var box = p.box();
+            float[] background = p.probability();
+            String over = "the STAPLE probability map";
+            ImageVolume image = source.image(p.caseId(), g);
+            if (image != null) {
+                background = new float[box.size()];
+                for (int i = 0; i < background.length; i++) {
+                    background[i] = image.data()[box.gridIndex(i, g.nx(), g.ny())];
+                }
+                over = "the case's image";
+            }
+            List<Overlays.Contour> contours = new ArrayList<>();
+            for (int j = 0; j < p.readers().size(); j++) {
+                contours.add(new Overlays.Contour(p.readers().get(j).reader(), p.readers().get(j).centre(),
+                    p.masks().get(j)));
+            }
+            byte[] png = Overlays.render(background, box.nx(), box.ny(), g.spacing(0), g.spacing(1), contours,
+                p.caseId() + " · " + p.structure() + " · axial slice z = " + p.z());
+            h.figure(png, String.format(Locale.ROOT, "%s, %s: slice z = %d with %d disputed voxels, over %s; "
+                    + "median pairwise Dice %s.", p.caseId(), p.structure(), p.z(), p.disputedVoxels(), over,
+                    two(1 - p.score())),
+                "Reader contours on the most disputed slice of " + p.caseId());
+        }
+    }
+
+    // ------------------------------------------------------------------ events
+
+    private static void events(HtmlReport h, StudyResult r) {
+        h.section("Flagged events");
+        if (r.events().isEmpty()) {
+            h.paragraph("No missing mask, no empty mask and no undefined distance.");
+            return;
+        }
+        Map<String, Integer> byKind = new java.util.TreeMap<>();
+        r.events().forEach(e -> byKind.merge(e.kind(), 1, Integer::sum));
+        List<String> counts = new ArrayList<>();
+        byKind.forEach((k, v) -> counts.add(v + " × " + k));
+        h.paragraph("Shown, never dropped: " + String.join(", ", counts) + ". An empty mask gives Dice 1 with "
+            + "another empty mask and 0 with a non-empty one; its surface distances are undefined and left out "
+            + "of the distance summaries, and counted here. All events are in events.csv.");
+        List<List<String>> rows = new ArrayList<>();
+        for (FlaggedEvent e : r.events()) {
+            if (rows.size() >= MAX_EVENTS_SHOWN) {
+                break;
+            }
+            rows.add(List.of(e.caseId(), e.label(), e.reader(), e.kind(), e.detail()));
+        }
+        h.table(r.events().size() > MAX_EVENTS_SHOWN ? "First " + MAX_EVENTS_SHOWN + " of " + r.events().size()
+            + " events (all in events.csv)" : null, List.of("Case", "Structure", "Reader", "Kind", "Detail"), rows, null);
+    }
+
+    // ------------------------------------------------------------------ methods
+
+    private static void methods(HtmlReport h, StudyResult r, RunInfo info) {
+        ShiftSettings s = r.shiftSettings();
+        h.section("Methods");
+        h.paragraph("Overlap. Dice = 2|A∩B| / (|A|+|B|) (Dice 1945); Jaccard = |A∩B| / |A∪B| (Jaccard 1912); "
+            + "volumes in ml from voxel counts and the voxel spacing. Two empty masks: Dice 1, distances undefined; "
+            + "one empty: Dice 0, distances undefined (both flagged).");
+        h.paragraph("Surfaces. Border voxels are foreground voxels with at least one face-neighbour in background "
+            + "(6-connectivity in 3-D, 4 in 2-D; outside the grid counts as background). Distances are Euclidean, "
+            + "in mm, between voxel centres, with the voxel spacing, from an exact distance transform "
+            + "(Felzenszwalb & Huttenlocher 2012). HD is the largest directed distance; HD95 the larger of the "
+            + "two directed 95th percentiles (linear interpolation between order statistics, Hyndman & Fan type 7)"
+            + (r.protocol().agreement().hd95() == org.accordia.study.Protocol.Hd95Mode.POOLED
+                ? "; this run uses the pooled variant, the 95th percentile of both directed sets together" : "")
+            + "; ASSD the mean of both directed sets; NSD the share of border voxels within τ of the other border "
+            + "(Nikolov et al. 2021), τ per structure. Signed surface distance: mean over a reader's border "
+            + "voxels of the distance to the consensus border, positive outside.");
+        h.paragraph("Fleiss' kappa (Fleiss 1971) over the union of all readers' structure grown by τ, so that the "
+            + "background far from the structure does not inflate it.");
+        h.paragraph("Consensus. Binary STAPLE (Warfield, Zou & Wells 2004) per structure on the decision-pattern "
+            + "histogram: W starts as the fraction of readers marking the voxel and the M-step runs first; prior = "
+            + "the mean foreground fraction over readers and voxels of the region; converged when no parameter changes by more than 1e-10 (at most 10,000 iterations); region: "
+            + r.stapleRegion() + "; consensus = voxels with W ≥ 0.5. References per reader: all readers; "
+            + "all other readers (leave-one-reader-out); readers of the other centres (leave-one-centre-out, used "
+            + "for centre effects). Multi-label STAPLE (Warfield et al. 2004; Rohlfing et al. 2004) for the label "
+            + "masks" + (r.multiLabelUndecided() >= 0 ? "; voxels it cannot decide (exact ties) carry the value "
+            + r.multiLabelUndecided() : "") + ". A reader who leaves out a whole component of the majority-vote "
+            + "consensus in a case is listed as missing part of the structure.");
+        h.paragraph(String.format(Locale.ROOT, "Centre differences. Distance-based partition of the reader-pair "
+            + "distances (%s) into within- and between-centre parts (PERMANOVA, Anderson 2001), tested by "
+            + "permuting the readers' centre labels (the same assignment for every case; exact enumeration of distinct "
+            + "partitions up to %d, else %d Monte Carlo permutations); α = %s. Centre and reader effects: mean "
+            + "signed surface distance and geometric-mean volume ratio with %d-resample case-bootstrap "
+            + "percentile intervals (Efron & Tibshirani 1993). Variance components: REML fit of case, centre, "
+            + "reader-within-centre and residual variance of the signed surface distance (Patterson & Thompson "
+            + "1971), intervals by parametric bootstrap. ICC of volumes on complete cases (Shrout & Fleiss 1979). "
+            + "A centre is flagged only when the test is significant AND its interval lies entirely beyond the "
+            + "minimum shift (%s mm or %s%% volume).", r.labels().isEmpty() ? "" : r.labels().get(0).input().distanceName(),
+            s.exactLimit(), s.permutations(), Numbers.format(s.alpha()), s.bootstrapResamples(),
+            Numbers.format(s.minimumShiftMm()), Numbers.format(s.minimumVolumeShiftPercent())));
+        h.paragraph("Decision rules, in order: centre-shift (re-annotate); significant-but-small, "
+            + "uncertain-centre-effect, design-cannot-reach-alpha, many-cases-to-adjudicate, readers-to-recalibrate "
+            + "(review); otherwise no-shift (pool). Every random generator is seeded from the seed below; the "
+            + "same inputs and seed give the same tables and summary whatever the number of threads.");
+        h.subsection("Settings used");
+        h.paragraph("Protocol: " + info.protocolSource() + ".");
+        List<Map.Entry<String, String>> settings = new ArrayList<>();
+        SummaryJson.settings(r.protocol(), s).forEach((k, v) -> settings.add(Map.entry(k,
+            v instanceof Double d ? Numbers.format(d) : String.valueOf(v))));
+        settings.add(Map.entry("structures", String.join("; ", r.structures().stream()
+            .map(x -> x.name() + " = labels " + x.labels() + ", τ " + Numbers.format(x.toleranceMm()) + " mm").toList())));
+        settings.add(Map.entry("software", "Accordia " + info.version()));
+        h.definitionList(settings);
+        h.subsection("Input checksums (SHA-256)");
+        if (info.inputs().isEmpty()) {
+            h.paragraph("No input file (cases generated in memory).");
+        } else {
+            List<List<String>> rows = new ArrayList<>();
+            for (InputChecksums.InputFile f : info.inputs()) {
+                rows.add(List.of(f.path(), Long.toString(f.bytes()), f.sha256()));
+            }
+            h.table(info.inputs().size() + " input files", List.of("File", "Bytes", "SHA-256"), rows,
+                new boolean[] {false, true, false});
+        }
+        h.subsection("References");
+        h.list(List.of(
+            "Anderson MJ (2001). A new method for non-parametric multivariate analysis of variance. Austral Ecology 26:32–46.",
+            "Dice LR (1945). Measures of the amount of ecologic association between species. Ecology 26:297–302.",
+            "Efron B, Tibshirani RJ (1993). An Introduction to the Bootstrap. Chapman & Hall.",
+            "Felzenszwalb PF, Huttenlocher DP (2012). Distance transforms of sampled functions. Theory of Computing 8:415–428.",
+            "Fleiss JL (1971). Measuring nominal scale agreement among many raters. Psychological Bulletin 76:378–382.",
+            "Hyndman RJ, Fan Y (1996). Sample quantiles in statistical packages. The American Statistician 50:361–365.",
+            "Jaccard P (1912). The distribution of the flora in the alpine zone. New Phytologist 11:37–50.",
+            "Nikolov S et al. (2021). Clinically applicable segmentation of head and neck anatomy for radiotherapy. J Med Internet Res 23:e26151.",
+            "Patterson HD, Thompson R (1971). Recovery of inter-block information when block sizes are unequal. Biometrika 58:545–554.",
+            "Rohlfing T, Russakoff DB, Maurer CR (2004). Performance-based classifier combination in atlas-based image segmentation. IEEE TMI 23:983–994.",
+            "Shrout PE, Fleiss JL (1979). Intraclass correlations: uses in assessing rater reliability. Psychological Bulletin 86:420–428.",
+            "Warfield SK, Zou KH, Wells WM (2004). Simultaneous truth and performance level estimation (STAPLE). IEEE TMI 23:903–921."));
+    }
+
+    // ------------------------------------------------------------------ helpers
+
+    private static String two(double v) {
+        return Double.isFinite(v) ? String.format(Locale.ROOT, "%.2f", v) : "n/a";
+    }
+
+    private static String withInterval(double est, double lo, double hi) {
+        if (!Double.isFinite(est)) {
+            return "";
+        }
+        return Numbers.format(Numbers.round(Math.round(est * 100) / 100.0))
+            + (Double.isFinite(lo) && Double.isFinite(hi)
+            ? String.format(Locale.ROOT, " [%.2f, %.2f]", lo, hi) : "");
+    }
+
+    private static String capitalise(String s) {
+        return s.isEmpty() ? s : Character.toUpperCase(s.charAt(0)) + s.substring(1);
+    }
+
+    /** The structures' cases in record order for a label (tests). */
+    static List<StructureCase> structureCases(StudyResult r, int s) {
+        return r.cases().stream().map(c -> c.structures().get(s)).toList();
+    }
+}
