@@ -10,21 +10,16 @@ import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 import org.accordia.analysis.AnalysisOptions;
-import org.accordia.analysis.CaseSink;
 import org.accordia.analysis.CaseSource;
+import org.accordia.analysis.InputChecksums;
 import org.accordia.analysis.StudyAnalysis;
 import org.accordia.analysis.StudyResult;
-import org.accordia.consensus.CaseReferences;
-import org.accordia.consensus.ConsensusOutputs;
-import org.accordia.consensus.ReaderPerformance;
 import org.accordia.io.InputException;
-import org.accordia.io.LabelVolume;
-import org.accordia.io.NiftiWriter;
 import org.accordia.io.ReadLimits;
 import org.accordia.io.Volumes;
-import org.accordia.report.CsvWriter;
+import org.accordia.report.AnalysisReport;
+import org.accordia.report.ConsensusFiles;
 import org.accordia.report.OutputFolder;
-import org.accordia.report.Tables;
 import org.accordia.study.MaskRef;
 import org.accordia.study.Protocol;
 import org.accordia.study.Study;
@@ -33,11 +28,10 @@ import org.accordia.study.Study;
  * End-to-end timing of the library pipeline on a study folder against the time the same JVM
  * needs only to read and inflate every mask of the study.
  *
- * <p>End-to-end = {@link StudyAnalysis#run} over {@link CaseSource#ofStudy} with {@code threads}
- * cases in parallel, writing real outputs into a fresh temporary folder: per case and structure
- * the STAPLE consensus mask and probability map (NIfTI, gzip), the multi-label consensus mask when
- * the study has several labels, and after the study the CSV tables of {@link Tables} (pairs,
- * readers, centres, cases, events). Read-only = every mask of every case read through
+ * <p>End-to-end = what {@code accordia analyze} does, through the library: input checksums,
+ * {@link StudyAnalysis#run} over {@link CaseSource#ofStudy} with {@code threads} cases in parallel
+ * and {@link ConsensusFiles} writing each case's consensus files, then {@link AnalysisReport#write}
+ * (report, summary, tables), all into a fresh temporary folder. Read-only = every mask of every case read through
  * {@link Volumes#readLabels} with the same number of threads (cases in parallel). Rounds alternate
  * the two (read first) after {@code warmups} discarded rounds; medians are reported.
  */
@@ -52,8 +46,8 @@ public final class AnalyzeBench {
     }
 
     /** What the end-to-end run writes, in words. */
-    public static final String OUTPUTS = "per case and structure the STAPLE consensus mask and probability map"
-        + " (.nii.gz), the multi-label consensus mask, and the CSV tables pairs, readers, centres, cases, events";
+    public static final String OUTPUTS = "what accordia analyze writes (input checksums, consensus masks and"
+        + " probability maps per case, report.html with charts and pictures, summary.json, the CSV tables)";
 
     private AnalyzeBench() {
     }
@@ -89,43 +83,22 @@ public final class AnalyzeBench {
             OUTPUTS);
     }
 
-    /** One end-to-end analysis of the study with its outputs written into {@code outDir}. */
+    /**
+     * One end-to-end analysis of the study with its outputs written into {@code outDir}, as
+     * {@code accordia analyze} does it: input checksums, the pipeline with the consensus files
+     * written per case ({@link ConsensusFiles}), then the report ({@link AnalysisReport#write}).
+     */
     public static StudyResult analyzeOnce(Study study, Protocol protocol, int threads, Path outDir)
         throws InputException, IOException {
+        CaseSource source = CaseSource.ofStudy(study, protocol, false);
+        List<InputChecksums.InputFile> checksums = InputChecksums.of(source.inputFiles(), study.root());
         OutputFolder folder = OutputFolder.prepare(outDir, true);
-        Files.createDirectories(outDir.resolve("consensus"));
-        CaseSink sink = work -> {
-            List<LabelVolume> masks = work.loaded().masks();
-            String caseId = OutputFolder.safeFileName(work.loaded().caseId());
-            for (CaseReferences refs : work.references()) {
-                int[] labels = labelsOf(protocol, refs.label());
-                String stem = "consensus/" + caseId + "_" + OutputFolder.safeFileName(refs.label());
-                LabelVolume cons = ConsensusOutputs.binaryConsensus(masks, labels, refs.all(),
-                    refs.keepMask(ReaderPerformance.REFERENCE_ALL, 0), 1);
-                folder.writeAtomically(stem + "_staple.nii.gz", os -> NiftiWriter.writeLabels(os, cons, true));
-                float[] map = ConsensusOutputs.probabilityMap(masks, labels, refs.all());
-                folder.writeAtomically(stem + "_probability.nii.gz",
-                    os -> NiftiWriter.writeProbability(os, work.loaded().geometry(), map, true));
-            }
-            if (work.multiLabel() != null) {
-                LabelVolume ml = ConsensusOutputs.labelConsensus(masks, work.multiLabel());
-                folder.writeAtomically("consensus/" + caseId + "_labels.nii.gz",
-                    os -> NiftiWriter.writeLabels(os, ml, true));
-            }
-        };
-        StudyResult r = StudyAnalysis.run(CaseSource.ofStudy(study, protocol, false), protocol,
-            AnalysisOptions.defaults().withThreads(threads), sink, () -> { });
-        folder.writeAtomically("pairs.csv", os -> CsvWriter.write(Tables.pairs(r), os));
-        folder.writeAtomically("readers.csv", os -> CsvWriter.write(Tables.readers(r), os));
-        folder.writeAtomically("centres.csv", os -> CsvWriter.write(Tables.centres(r), os));
-        folder.writeAtomically("cases.csv", os -> CsvWriter.write(Tables.cases(r), os));
-        folder.writeAtomically("events.csv", os -> CsvWriter.write(Tables.events(r), os));
+        ConsensusFiles consensus = new ConsensusFiles(folder, AnalysisReport.PICTURES);
+        StudyResult r = StudyAnalysis.run(source, protocol, AnalysisOptions.defaults().withThreads(threads), consensus,
+            () -> { });
+        AnalysisReport.write(folder, r, consensus.pictures(), source,
+            new AnalysisReport.RunInfo("benchmark", checksums, "benchmark protocol (demo structures)"));
         return r;
-    }
-
-    private static int[] labelsOf(Protocol protocol, String structure) {
-        return protocol.structures().stream().filter(s -> s.name().equals(structure)).findFirst()
-            .orElseThrow(() -> new IllegalStateException("unknown structure " + structure)).labelArray();
     }
 
     /** Reads every mask of the study, cases spread over {@code threads} workers; returns the voxel total. */
