@@ -30,7 +30,7 @@ public final class ChildJvm {
                 throw new IllegalStateException("the child did not report " + key + " (exit code " + exitCode + "): "
                     + stderr.strip());
             }
-            return Long.parseLong(v.trim());
+            return Long.parseLong(v.trim().split("\\s+")[0]);
         }
     }
 

@@ -40,13 +40,14 @@ import picocli.CommandLine.Option;
 public final class BenchCommand implements Callable<Integer> {
 
     /** What to measure. */
-    enum What { agreement, consensus, analyze, all }
+    enum What { agreement, consensus, analyze, memory, all }
 
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
 
     @Option(names = "--what", paramLabel = "PART",
-        description = "agreement, consensus, analyze or all (default: ${DEFAULT-VALUE}).")
+        description = "agreement, consensus, analyze (end to end and memory), memory (the memory part alone) or all"
+            + " (default: ${DEFAULT-VALUE}).")
     What what = What.all;
 
     @Option(names = "--cases", paramLabel = "N",
@@ -129,6 +130,10 @@ public final class BenchCommand implements Callable<Integer> {
             w.println();
             analyze(w);
         }
+        if (what == What.analyze || what == What.all || what == What.memory) {
+            w.println();
+            memory(w);
+        }
         w.flush();
         return ExitCodes.OK;
     }
@@ -149,6 +154,11 @@ public final class BenchCommand implements Callable<Integer> {
         w.printf(Locale.ROOT, "%-66s %7.2fx %9s %s%n", "end-to-end analyze / read", a.ratio(), "<= 3.0x",
             verdict(a.ratio() <= 3.0, threads));
         w.flush();
+    }
+
+    void memory(PrintWriter w) throws Exception {
+        w.printf(Locale.ROOT, "peak memory: each study analysed end to end in a child JVM with -Xmx%s, %d threads%n",
+            childXmx, threads);
         long[] peak = new long[2];
         long[] ms = new long[2];
         for (int i = 0; i < 2; i++) {
@@ -160,8 +170,11 @@ public final class BenchCommand implements Callable<Integer> {
             }
             peak[i] = o.number("VMHWM_KIB");
             ms[i] = o.number("ELAPSED_MS");
-            w.printf(Locale.ROOT, "  child JVM -Xmx%s, %d cases: analyze %.1f s, peak resident memory (VmHWM) %.0f MiB%n",
-                childXmx, memoryCases[i], ms[i] / 1e3, peak[i] / 1024.0);
+            w.printf(Locale.ROOT, "  child JVM -Xmx%s, %d cases: analyze %.1f s, peak resident memory (VmHWM) %.0f MiB;"
+                    + " heap: peak used %.0f MiB, peak committed %.0f MiB, live after a full GC with the result"
+                    + " reachable %.0f MiB%n", childXmx, memoryCases[i], ms[i] / 1e3, peak[i] / 1024.0,
+                o.number("HEAP_PEAK_USED_KIB") / 1024.0, o.number("HEAP_PEAK_COMMITTED_KIB") / 1024.0,
+                o.number("LIVE_HEAP_AFTER_KIB") / 1024.0);
             w.flush();
         }
         if (peak[0] > 0 && peak[1] > 0) {
