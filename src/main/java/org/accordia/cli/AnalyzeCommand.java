@@ -18,12 +18,10 @@ import org.accordia.analysis.LabelResult;
 import org.accordia.analysis.StudyAnalysis;
 import org.accordia.analysis.StudyResult;
 import org.accordia.io.InputException;
-import org.accordia.io.ReadLimits;
 import org.accordia.report.AnalysisReport;
 import org.accordia.report.ConsensusFiles;
 import org.accordia.report.OutputFolder;
 import org.accordia.shift.Verdict;
-import org.accordia.study.LoadOptions;
 import org.accordia.study.Protocol;
 import org.accordia.study.Study;
 import org.accordia.study.StudyLoader;
@@ -95,24 +93,15 @@ public final class AnalyzeCommand implements Callable<Integer> {
             + "(default: exit 0 whatever the verdict).")
     String failOn;
 
-    @Option(names = "--max-voxels", paramLabel = "N",
-        description = "Refuse any volume declaring more voxels than this; overrides the protocol's max_voxels "
-            + "(default: the protocol's value, itself 2147483631 by default).")
-    Long maxVoxels;
-
-    @Option(names = "--allow-outside-root",
-        description = "Accept mask and image paths that lead outside the study folder (default: refused).")
-    boolean allowOutsideRoot;
+    @CommandLine.Mixin
+    ReadOptions read = new ReadOptions();
 
     @Override
     public Integer call() throws Exception {
         if (threads < 1) {
             throw new CommandLine.ParameterException(spec.commandLine(), "--threads must be at least 1");
         }
-        if (maxVoxels != null && (maxVoxels < 1 || maxVoxels > ReadLimits.ARRAY_LIMIT)) {
-            throw new CommandLine.ParameterException(spec.commandLine(),
-                "--max-voxels must lie between 1 and " + ReadLimits.ARRAY_LIMIT);
-        }
+        read.check(spec.commandLine());
         Verdict failLevel = null;
         if (failOn != null) {
             failLevel = switch (failOn) {
@@ -122,7 +111,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
                     "--fail-on takes review or re-annotate, not '" + failOn + "'");
             };
         }
-        Study s = StudyLoader.load(study, new LoadOptions(allowOutsideRoot));
+        Study s = StudyLoader.load(study, read.loadOptions());
         String protocolSource;
         Protocol protocol;
         Path inStudy = s.root().resolve(STUDY_PROTOCOL);
@@ -139,13 +128,11 @@ public final class AnalyzeCommand implements Callable<Integer> {
         if (seed != null) {
             protocol = protocol.withSeed(seed);
         }
-        if (maxVoxels != null) {
-            protocol = protocol.withMaxVoxels(maxVoxels);
-        }
+        protocol = read.apply(protocol);
         if (s.cases().isEmpty()) {
             throw new InputException(study, "the study has no case");
         }
-        CaseSource source = CaseSource.ofStudy(s, protocol, allowOutsideRoot);
+        CaseSource source = CaseSource.ofStudy(s, protocol, read.allowOutsideRoot());
         List<Path> inputs = new java.util.ArrayList<>(source.inputFiles());
         if (protocolFile != null) {
             inputs.add(protocolFile);

@@ -9,11 +9,9 @@ import java.util.Map;
 import java.util.concurrent.Callable;
 import java.util.stream.Collectors;
 import org.accordia.io.Geometry;
-import org.accordia.io.ReadLimits;
 import org.accordia.study.CaseReader;
 import org.accordia.study.InspectionReport;
 import org.accordia.study.Inspector;
-import org.accordia.study.LoadOptions;
 import org.accordia.study.Protocol;
 import org.accordia.study.ReaderId;
 import org.accordia.study.Structure;
@@ -55,14 +53,8 @@ public final class InspectCommand implements Callable<Integer> {
         description = "Protocol file (YAML, see docs/protocol.md); default: built-in defaults, one structure per label seen.")
     Path protocolFile;
 
-    @Option(names = "--max-voxels", paramLabel = "N",
-        description = "Refuse any volume declaring more voxels than this; overrides the protocol's max_voxels "
-            + "(default: the protocol's value, itself 2147483631 by default).")
-    Long maxVoxels;
-
-    @Option(names = "--allow-outside-root",
-        description = "Accept mask and image paths that lead outside the study folder (default: refused).")
-    boolean allowOutsideRoot;
+    @CommandLine.Mixin
+    ReadOptions read = new ReadOptions();
 
     @Option(names = "--threads", paramLabel = "N",
         description = "Cases read in parallel, one mask per thread in memory at a time (default: ${DEFAULT-VALUE}).")
@@ -73,16 +65,11 @@ public final class InspectCommand implements Callable<Integer> {
         if (threads < 1) {
             throw new CommandLine.ParameterException(spec.commandLine(), "--threads must be at least 1");
         }
-        if (maxVoxels != null && (maxVoxels < 1 || maxVoxels > ReadLimits.ARRAY_LIMIT)) {
-            throw new CommandLine.ParameterException(spec.commandLine(),
-                "--max-voxels must lie between 1 and " + ReadLimits.ARRAY_LIMIT);
-        }
+        read.check(spec.commandLine());
         Protocol protocol = protocolFile == null ? Protocol.defaults() : Protocol.load(protocolFile);
-        if (maxVoxels != null) {
-            protocol = protocol.withMaxVoxels(maxVoxels);
-        }
-        Study s = StudyLoader.load(study, new LoadOptions(allowOutsideRoot));
-        InspectionReport report = Inspector.inspect(s, protocol, protocol.readLimits(allowOutsideRoot), threads);
+        protocol = read.apply(protocol);
+        Study s = StudyLoader.load(study, read.loadOptions());
+        InspectionReport report = Inspector.inspect(s, protocol, protocol.readLimits(read.allowOutsideRoot()), threads);
         PrintWriter out = spec.commandLine().getOut();
         out.print(format(report));
         out.flush();

@@ -143,7 +143,14 @@ public final class AnalysisReport {
         List<List<String>> rows = new ArrayList<>();
         for (LabelResult l : r.labels()) {
             for (CaseToAdjudicate c : l.summary().casesToAdjudicate()) {
-                rows.add(List.of(l.name(), c.caseId(), String.join("; ", c.reasons())));
+                List<String> why = new ArrayList<>(c.reasons());
+                for (MissedStructure m : l.missedStructure()) {
+                    if (m.cases().contains(c.caseId())) {
+                        why.add("reader " + m.reader() + " (" + m.centre() + ") leaves out a part of " + l.name()
+                            + " that most readers mark");
+                    }
+                }
+                rows.add(List.of(l.name(), c.caseId(), String.join("; ", why)));
             }
         }
         if (rows.isEmpty()) {
@@ -310,6 +317,19 @@ public final class AnalysisReport {
                     + "consensus) taken by cases, centres, readers within centres and the rest (REML fit). A large "
                     + "centre share means the centres draw differently.",
                 "Stacked bars of variance components per structure");
+        }
+        List<List<String>> iccRows = new ArrayList<>();
+        for (LabelResult l : r.labels()) {
+            for (var f : l.summary().icc()) {
+                iccRows.add(List.of(l.name(), f.form(), f.value() == null ? "" : withInterval(f.value(),
+                    f.lower() == null ? Double.NaN : f.lower(), f.upper() == null ? Double.NaN : f.upper())));
+            }
+        }
+        if (iccRows.isEmpty()) {
+            h.paragraph("No ICC of volumes: fewer than two cases were read by every reader.");
+        } else {
+            h.table("Side table: ICC of the readers' volumes (Shrout & Fleiss forms, complete cases only)",
+                List.of("Structure", "Form", "ICC [95% interval]"), iccRows, new boolean[] {false, false, true});
         }
         for (LabelResult l : r.labels()) {
             List<String> cases = new ArrayList<>();
@@ -517,7 +537,7 @@ public final class AnalysisReport {
         if (!Double.isFinite(est)) {
             return "";
         }
-        return Numbers.format(Numbers.round(Math.round(est * 100) / 100.0))
+        return String.format(Locale.ROOT, "%.2f", est)
             + (Double.isFinite(lo) && Double.isFinite(hi)
             ? String.format(Locale.ROOT, " [%.2f, %.2f]", lo, hi) : "");
     }

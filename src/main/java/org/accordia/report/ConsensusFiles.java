@@ -162,30 +162,13 @@ public final class ConsensusFiles implements CaseSink {
         LoadedCase lc = work.loaded();
         Geometry g = lc.geometry();
         Box union = ca.unionBox();
-        boolean[] table = sc.structure().byteTable();
         // the slice of greatest disagreement within the union box
-        List<boolean[]> inBox = new ArrayList<>();
-        for (LabelVolume m : lc.masks()) {
-            boolean[] b = new boolean[union.size()];
-            for (int i = 0; i < b.length; i++) {
-                int v = m.label(union.gridIndex(i, g.nx(), g.ny()));
-                b[i] = v < 256 ? table[v] : sc.structure().covers(v);
-            }
-            inBox.add(b);
-        }
+        List<boolean[]> inBox = masksInBox(lc.masks(), sc.structure(), union);
         DisagreementSlice slice = DisagreementSlice.find(inBox, union.nx(), union.ny(), union.nz(), union.z0());
         Box crop = new Box(Math.max(0, union.x0() - PICTURE_MARGIN_VOXELS), Math.max(0, union.y0() - PICTURE_MARGIN_VOXELS),
             slice.z(), Math.min(g.nx(), union.x1() + PICTURE_MARGIN_VOXELS),
             Math.min(g.ny(), union.y1() + PICTURE_MARGIN_VOXELS), slice.z() + 1);
-        List<boolean[]> masks = new ArrayList<>();
-        for (LabelVolume m : lc.masks()) {
-            boolean[] b = new boolean[crop.size()];
-            for (int i = 0; i < b.length; i++) {
-                int v = m.label(crop.gridIndex(i, g.nx(), g.ny()));
-                b[i] = v < 256 ? table[v] : sc.structure().covers(v);
-            }
-            masks.add(b);
-        }
+        List<boolean[]> masks = masksInBox(lc.masks(), sc.structure(), crop);
         float[] w = ConsensusOutputs.probabilityMap(lc.masks(), sc.structure().labelArray(),
             work.references().get(pick).all());
         float[] prob = new float[crop.size()];
@@ -194,5 +177,21 @@ public final class ConsensusFiles implements CaseSink {
         }
         return new Picture(rec.caseId(), sc.structure().name(), rec.disagreementScore(), slice.z(),
             slice.disagreementVoxels(), crop, g, lc.readers(), masks, prob);
+    }
+
+    /** Each reader's structure membership over a box (x fastest within the box). */
+    static List<boolean[]> masksInBox(List<LabelVolume> volumes, Structure structure, Box box) {
+        boolean[] table = structure.byteTable();
+        List<boolean[]> out = new ArrayList<>();
+        for (LabelVolume m : volumes) {
+            Geometry g = m.geometry();
+            boolean[] b = new boolean[box.size()];
+            for (int i = 0; i < b.length; i++) {
+                int v = m.label(box.gridIndex(i, g.nx(), g.ny()));
+                b[i] = v < 256 ? table[v] : structure.covers(v);
+            }
+            out.add(b);
+        }
+        return out;
     }
 }

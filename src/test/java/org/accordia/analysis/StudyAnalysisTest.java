@@ -74,4 +74,16 @@ class StudyAnalysisTest {
         assertEquals(200, s.bootstrapResamples());
         assertEquals(0.05, s.alpha());
     }
+
+    /** Degenerate designs run through and say what cannot be estimated instead of failing. */
+    @org.junit.jupiter.params.ParameterizedTest
+    @org.junit.jupiter.params.provider.CsvSource({"3, 1, 3", "3, 3, 1", "2, 2, 2", "1, 3, 2"})
+    void degenerateDesignsRunThrough(int cases, int centres, int readersPerCentre) throws Exception {
+        DemoSpec spec = small().withRoster(cases, centres, readersPerCentre);
+        DemoGenerator.InMemory demo = DemoGenerator.inMemory(spec);
+        StudyResult r = StudyAnalysis.run(CaseSource.of(demo.caseIds(), demo::load, null), protocol(), quick(2));
+        assertEquals(cases, r.cases().size());
+        LabelResult l = r.labels().get(0);
+        assertTrue(l.summary().verdict() != null && !l.summary().reasons().isEmpty());
+    }
 }

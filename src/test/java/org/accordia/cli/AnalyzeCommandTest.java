@@ -41,14 +41,8 @@ import org.junit.jupiter.api.io.TempDir;
  */
 class AnalyzeCommandTest {
 
-    record Run(int code, String out, String err) {
-    }
-
-    static Run run(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int code = Main.execute(new PrintWriter(out), new PrintWriter(err), args);
-        return new Run(code, out.toString(), err.toString());
+    static CliRun run(String... args) {
+        return CliRun.of(args);
     }
 
     /** The demo protocol with fewer bootstrap resamples (keeps the test quick; the method is the same). */
@@ -91,12 +85,12 @@ class AnalyzeCommandTest {
         Map<String, String> before = checksums(study);
         DemoTruth truth = DemoTruth.read(study.resolve(DemoTruth.FILE_NAME));
 
-        Run a = run("analyze", study.toString(), "--protocol", protocol.toString(), "--out", tmp.resolve("a").toString(),
+        CliRun a = run("analyze", study.toString(), "--protocol", protocol.toString(), "--out", tmp.resolve("a").toString(),
             "--threads", "2", "--quiet");
         assertEquals(ExitCodes.OK, a.code(), a.err());
         assertTrue(a.out().contains("lesion: re-annotate"), a.out());
         // the same run on one thread, failing on re-annotate: exit 3, the same files
-        Run b = run("analyze", study.toString(), "--protocol", protocol.toString(), "--out", tmp.resolve("b").toString(),
+        CliRun b = run("analyze", study.toString(), "--protocol", protocol.toString(), "--out", tmp.resolve("b").toString(),
             "--threads", "1", "--quiet", "--fail-on", "re-annotate");
         assertEquals(ExitCodes.VERDICT, b.code(), b.err());
         for (String f : List.of("pairs.csv", "readers.csv", "centres.csv", "cases.csv", "reader_summary.csv",
@@ -206,7 +200,7 @@ class AnalyzeCommandTest {
     void hostileNamesAreTextInTheReportAndNeutralisedInEveryCsv(@TempDir Path tmp) throws Exception {
         Path study = hostileStudy(tmp.resolve("study"));
         Path protocol = quickProtocol(tmp);
-        Run r = run("analyze", study.toString(), "--protocol", protocol.toString(), "--out", tmp.resolve("out").toString(),
+        CliRun r = run("analyze", study.toString(), "--protocol", protocol.toString(), "--out", tmp.resolve("out").toString(),
             "--quiet");
         assertEquals(ExitCodes.OK, r.code(), r.err());
         Document doc = parseStrict(tmp.resolve("out/report.html"));
@@ -245,7 +239,7 @@ class AnalyzeCommandTest {
         Path study = hostileStudy(tmp.resolve("study"));
         Path out = Files.createDirectories(tmp.resolve("out"));
         Files.writeString(out.resolve("notes.txt"), "mine");
-        Run r = run("analyze", study.toString(), "--out", out.toString(), "--quiet");
+        CliRun r = run("analyze", study.toString(), "--out", out.toString(), "--quiet");
         assertEquals(ExitCodes.INPUT, r.code());
         assertTrue(r.err().contains(out.toString()) && r.err().contains("--force"), r.err());
         assertEquals(1, r.err().strip().lines().count(), r.err());
@@ -256,7 +250,7 @@ class AnalyzeCommandTest {
     void usageErrorsAreExitTwo(@TempDir Path tmp) throws Exception {
         assertEquals(ExitCodes.INPUT, run("analyze", tmp.toString(), "--fail-on", "sometimes").code());
         assertEquals(ExitCodes.INPUT, run("analyze", tmp.resolve("missing").toString(), "--quiet").code());
-        Run help = run("analyze", "--help");
+        CliRun help = run("analyze", "--help");
         assertEquals(ExitCodes.OK, help.code());
         assertTrue(help.out().contains("Exit codes:") && help.out().contains("--fail-on"), help.out());
     }

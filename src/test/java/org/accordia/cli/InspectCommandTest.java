@@ -24,20 +24,14 @@ class InspectCommandTest {
     @TempDir
     Path tmp;
 
-    record Run(int code, String out, String err) {
-    }
-
-    static Run run(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int code = Main.execute(new PrintWriter(out), new PrintWriter(err), args);
-        return new Run(code, out.toString(), err.toString());
+    static CliRun run(String... args) {
+        return CliRun.of(args);
     }
 
     @BeforeAll
     static void generateDemo() throws Exception {
         demo = shared.resolve("demo");
-        Run r = run("demo", "--out", demo.toString(), "--size", "48,48,24", "--spacing", "1.6,1.6,5");
+        CliRun r = run("demo", "--out", demo.toString(), "--size", "48,48,24", "--spacing", "1.6,1.6,5");
         assertEquals(0, r.code(), r.err());
     }
 
@@ -52,7 +46,7 @@ class InspectCommandTest {
 
     @Test
     void demoStudyIsAnalysableAndListed() {
-        Run r = run("inspect", demo.toString(), "--protocol", "protocols/demo.yaml");
+        CliRun r = run("inspect", demo.toString(), "--protocol", "protocols/demo.yaml");
         assertEquals(0, r.code(), r.out() + r.err());
         String o = r.out();
         assertTrue(o.contains("Centres (3), readers (9):"), o);
@@ -77,14 +71,14 @@ class InspectCommandTest {
 
     @Test
     void missingStudyExitsTwoWithOneLine() {
-        Run r = run("inspect", tmp.resolve("nothing").toString());
+        CliRun r = run("inspect", tmp.resolve("nothing").toString());
         assertEquals(2, r.code());
         assertEquals("accordia: " + tmp.resolve("nothing") + ": study folder or manifest not found\n", r.err());
     }
 
     @Test
     void emptyStudyIsNotAnalysable() {
-        Run r = run("inspect", tmp.toString());
+        CliRun r = run("inspect", tmp.toString());
         assertEquals(2, r.code());
         assertTrue(r.out().contains("ERROR: " + tmp.toAbsolutePath() + ": the study has no case"), r.out());
         assertTrue(r.out().contains("the study has 0 reader(s); agreement needs at least 2"), r.out());
@@ -96,7 +90,7 @@ class InspectCommandTest {
     void oneReaderStudyIsNotAnalysable() throws Exception {
         mask(tmp.resolve("alpha/r1/c1.nii.gz"), G);
         mask(tmp.resolve("alpha/r1/c2.nii.gz"), G);
-        Run r = run("inspect", tmp.toString());
+        CliRun r = run("inspect", tmp.toString());
         assertEquals(2, r.code());
         assertTrue(r.out().contains("the study has 1 reader(s); agreement needs at least 2"), r.out());
         assertTrue(r.out().contains("NOTE: " + tmp + ": centre 'alpha' has a single reader (r1): within-centre disagreement is not estimable for it"),
@@ -109,7 +103,7 @@ class InspectCommandTest {
         mask(tmp.resolve("alpha/r2/c1.nii.gz"), Geometry.axisAligned(4, 4, 2, 1, 1, 2));
         mask(tmp.resolve("alpha/r1/c2.nii.gz"), G);
         Files.writeString(tmp.resolve("alpha/r2/c2.nii.gz"), "not a volume");
-        Run r = run("inspect", tmp.toString());
+        CliRun r = run("inspect", tmp.toString());
         assertEquals(2, r.code());
         assertTrue(r.out().contains("Problems: 2 error(s)"), r.out());
         assertTrue(r.out().contains("ERROR: " + tmp.resolve("alpha/r2/c1.nii.gz") + ": grid differs from " + tmp.resolve("alpha/r1/c1.nii.gz")),
@@ -121,17 +115,17 @@ class InspectCommandTest {
     void protocolErrorsExitTwoWithoutStackTrace() throws Exception {
         Path p = tmp.resolve("p.yaml");
         Files.writeString(p, "shift:\n  alpa: 0.1\n");
-        Run r = run("inspect", demo.toString(), "--protocol", p.toString());
+        CliRun r = run("inspect", demo.toString(), "--protocol", p.toString());
         assertEquals(2, r.code());
         assertEquals("accordia: " + p + ": shift.alpa: unknown key (allowed here: distance, alpha, permutations, "
             + "minimum_shift_mm, minimum_volume_shift_percent)\n", r.err());
-        Run debug = run("inspect", demo.toString(), "--protocol", p.toString(), "--debug");
+        CliRun debug = run("inspect", demo.toString(), "--protocol", p.toString(), "--debug");
         assertTrue(debug.err().contains("at org.accordia"), "stack trace only with --debug");
     }
 
     @Test
     void parameterErrorsExitTwo() {
-        Run r = run("inspect", demo.toString(), "--max-voxels", "lots");
+        CliRun r = run("inspect", demo.toString(), "--max-voxels", "lots");
         assertEquals(2, r.code());
         assertTrue(r.err().startsWith("accordia: Invalid value for option '--max-voxels'"), r.err());
         assertEquals(2, run("inspect").code());
@@ -140,7 +134,7 @@ class InspectCommandTest {
 
     @Test
     void voxelLimitMakesMasksUnreadable() {
-        Run r = run("inspect", demo.toString(), "--max-voxels", "1000");
+        CliRun r = run("inspect", demo.toString(), "--max-voxels", "1000");
         assertEquals(2, r.code());
         assertTrue(r.out().contains("unreadable mask"), r.out());
     }
@@ -151,32 +145,32 @@ class InspectCommandTest {
         mask(tmp.resolve("out/c1.nii.gz"), G);
         mask(study.resolve("a.nii.gz"), G);
         Files.writeString(study.resolve("manifest.csv"), "case,centre,reader,path\nc1,x,r1,a.nii.gz\nc1,x,r2,../out/c1.nii.gz\n");
-        Run refused = run("inspect", study.toString());
+        CliRun refused = run("inspect", study.toString());
         assertEquals(2, refused.code());
         assertTrue(refused.err().contains("manifest.csv: line 3: path '../out/c1.nii.gz': path leads outside the study root"),
             refused.err());
-        Run allowed = run("inspect", study.toString(), "--allow-outside-root");
+        CliRun allowed = run("inspect", study.toString(), "--allow-outside-root");
         assertEquals(0, allowed.code(), allowed.out() + allowed.err());
     }
 
     @Test
     void helpDescribesEveryOption() {
-        Run r = run("inspect", "--help");
+        CliRun r = run("inspect", "--help");
         assertEquals(0, r.code());
         for (String opt : new String[] {"--protocol", "--max-voxels", "--allow-outside-root", "--threads"}) {
             assertTrue(r.out().contains(opt), opt);
         }
-        Run d = run("demo", "--help");
+        CliRun d = run("demo", "--help");
         assertEquals(0, d.code());
         assertTrue(d.out().contains("default: 20261202"), d.out());
     }
 
     @Test
     void demoRefusesBadSizes() {
-        Run r = run("demo", "--out", tmp.resolve("x").toString(), "--size", "4,4");
+        CliRun r = run("demo", "--out", tmp.resolve("x").toString(), "--size", "4,4");
         assertEquals(2, r.code());
         assertTrue(r.err().startsWith("accordia: --size needs three values"), r.err());
-        Run s = run("demo", "--out", tmp.resolve("y").toString(), "--cases", "0");
+        CliRun s = run("demo", "--out", tmp.resolve("y").toString(), "--cases", "0");
         assertEquals(2, s.code());
         assertTrue(s.err().contains("cases must lie in 1..999"), s.err());
     }

@@ -52,7 +52,8 @@ class DemoGeneratorTest {
         try (Stream<Path> w = Files.walk(tmp.resolve("a"))) {
             files = w.filter(Files::isRegularFile).map(p -> tmp.resolve("a").relativize(p)).sorted().toList();
         }
-        assertEquals(4 * 9 + 4 + 2, files.size(), files.toString());
+        // 4 cases x 9 readers, 4 images, manifest.csv, demo-truth.json, protocol.yaml
+        assertEquals(4 * 9 + 4 + 3, files.size(), files.toString());
         int differ = 0;
         for (Path rel : files) {
             byte[] a = Files.readAllBytes(tmp.resolve("a").resolve(rel));
