@@ -19,7 +19,9 @@ import picocli.CommandLine.Command;
         CommandLine.HelpCommand.class,
         InspectCommand.class,
         AnalyzeCommand.class,
-        DemoCommand.class
+        DemoCommand.class,
+        BenchCommand.class,
+        CalibrateCommand.class
     },
     exitCodeListHeading = "%nExit codes:%n",
     exitCodeList = {

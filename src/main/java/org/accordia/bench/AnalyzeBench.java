@@ -1,0 +1,137 @@
+package org.accordia.bench;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import org.accordia.analysis.AnalysisOptions;
+import org.accordia.analysis.CaseSource;
+import org.accordia.analysis.InputChecksums;
+import org.accordia.analysis.StudyAnalysis;
+import org.accordia.analysis.StudyResult;
+import org.accordia.io.InputException;
+import org.accordia.io.ReadLimits;
+import org.accordia.io.Volumes;
+import org.accordia.report.AnalysisReport;
+import org.accordia.report.ConsensusFiles;
+import org.accordia.report.OutputFolder;
+import org.accordia.study.MaskRef;
+import org.accordia.study.Protocol;
+import org.accordia.study.Study;
+
+/**
+ * End-to-end timing of the library pipeline on a study folder against the time the same JVM
+ * needs only to read and inflate every mask of the study.
+ *
+ * <p>End-to-end = what {@code accordia analyze} does, through the library: input checksums,
+ * {@link StudyAnalysis#run} over {@link CaseSource#ofStudy} with {@code threads} cases in parallel
+ * and {@link ConsensusFiles} writing each case's consensus files, then {@link AnalysisReport#write}
+ * (report, summary, tables), all into a fresh temporary folder. Read-only = every mask of every case read through
+ * {@link Volumes#readLabels} with the same number of threads (cases in parallel). Rounds alternate
+ * the two (read first) after {@code warmups} discarded rounds; medians are reported.
+ */
+public final class AnalyzeBench {
+
+    /** Medians in nanoseconds. */
+    public record Result(int cases, int masks, double analyzeNs, double readNs, int rounds, int warmups, int threads,
+                         String outputs) {
+        public double ratio() {
+            return analyzeNs / readNs;
+        }
+    }
+
+    /** What the end-to-end run writes, in words. */
+    public static final String OUTPUTS = "what accordia analyze writes (input checksums, consensus masks and"
+        + " probability maps per case, report.html with charts and pictures, summary.json, the CSV tables)";
+
+    private AnalyzeBench() {
+    }
+
+    /** Measures the study. */
+    public static Result run(Study study, Protocol protocol, int threads, int warmups, int rounds)
+        throws InputException, IOException {
+        long[] analyze = new long[rounds];
+        long[] read = new long[rounds];
+        int masks = study.masks().size();
+        for (int round = 0; round < warmups + rounds; round++) {
+            int k = round - warmups;
+            long t0 = System.nanoTime();
+            long voxels = readAll(study, threads);
+            long t1 = System.nanoTime();
+            if (voxels < 0) {
+                throw new IllegalStateException("unreachable");
+            }
+            Path out = Files.createTempDirectory("accordia-bench-analyze");
+            try {
+                long t2 = System.nanoTime();
+                analyzeOnce(study, protocol, threads, out);
+                long t3 = System.nanoTime();
+                if (k >= 0) {
+                    read[k] = t1 - t0;
+                    analyze[k] = t3 - t2;
+                }
+            } finally {
+                BenchStudies.deleteTree(out);
+            }
+        }
+        return new Result(study.cases().size(), masks, Medians.of(analyze), Medians.of(read), rounds, warmups, threads,
+            OUTPUTS);
+    }
+
+    /**
+     * One end-to-end analysis of the study with its outputs written into {@code outDir}, as
+     * {@code accordia analyze} does it: input checksums, the pipeline with the consensus files
+     * written per case ({@link ConsensusFiles}), then the report ({@link AnalysisReport#write}).
+     */
+    public static StudyResult analyzeOnce(Study study, Protocol protocol, int threads, Path outDir)
+        throws InputException, IOException {
+        CaseSource source = CaseSource.ofStudy(study, protocol, false);
+        List<InputChecksums.InputFile> checksums = InputChecksums.of(source.inputFiles(), study.root());
+        OutputFolder folder = OutputFolder.prepare(outDir, true);
+        ConsensusFiles consensus = new ConsensusFiles(folder, AnalysisReport.PICTURES);
+        StudyResult r = StudyAnalysis.run(source, protocol, AnalysisOptions.defaults().withThreads(threads), consensus,
+            () -> { });
+        AnalysisReport.write(folder, r, consensus.pictures(), source,
+            new AnalysisReport.RunInfo("benchmark", checksums, "benchmark protocol (demo structures)"));
+        return r;
+    }
+
+    /** Reads every mask of the study, cases spread over {@code threads} workers; returns the voxel total. */
+    public static long readAll(Study study, int threads) throws InputException {
+        ExecutorService pool = Executors.newFixedThreadPool(threads, CaseBench.daemon("accordia-bench-readall"));
+        try {
+            List<Future<Long>> fs = new ArrayList<>();
+            for (String caseId : study.cases()) {
+                fs.add(pool.submit(() -> {
+                    long n = 0;
+                    for (MaskRef m : study.masksOf(caseId)) {
+                        n += Volumes.readLabels(m.path(), ReadLimits.DEFAULT).voxelCount();
+                    }
+                    return n;
+                }));
+            }
+            long total = 0;
+            for (Future<Long> f : fs) {
+                try {
+                    total += f.get();
+                } catch (InterruptedException e) {
+                    Thread.currentThread().interrupt();
+                    throw new IllegalStateException("interrupted", e);
+                } catch (ExecutionException e) {
+                    if (e.getCause() instanceof InputException ie) {
+                        throw ie;
+                    }
+                    throw new IllegalStateException(e.getCause());
+                }
+            }
+            return total;
+        } finally {
+            pool.shutdownNow();
+        }
+    }
+}
