@@ -33,9 +33,10 @@ import picocli.CommandLine.Option;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
-        "Measures the analysis steps on a generated study (cached in the work folder) and prints each",
-        "step's time as a ratio to the time the same JVM needs to read and inflate the masks, with the",
-        "targets. Medians over rounds after a warm-up; the machine and its load average are printed."
+        "Measures the analysis steps on a generated study (cached in the work folder) and prints "
+            + "each step's time as a ratio to the time the same JVM needs to read and inflate the masks, "
+            + "with the targets. Medians over rounds after a warm-up; the machine and its load average "
+            + "are printed."
     })
 public final class BenchCommand implements Callable<Integer> {
 
