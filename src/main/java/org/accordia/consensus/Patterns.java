@@ -3,6 +3,7 @@ package org.accordia.consensus;
 import java.lang.invoke.MethodHandles;
 import java.lang.invoke.VarHandle;
 import java.nio.ByteOrder;
+import java.util.Arrays;
 import java.util.List;
 import org.accordia.agreement.Borders.Box;
 import org.accordia.io.LabelVolume;
@@ -62,6 +63,22 @@ final class Patterns {
     }
 
     private static final VarHandle LONGS = MethodHandles.byteArrayViewVarHandle(long[].class, ByteOrder.LITTLE_ENDIAN);
+
+    /**
+     * Bounding box of the voxels where any volume holds a non-zero value, when every volume is
+     * byte-stored ({@link Box#EMPTY} if all are 0); null when some volume stores ints (callers then
+     * use the whole grid).
+     */
+    static Box nonzeroByteBox(List<LabelVolume> volumes) {
+        for (LabelVolume v : volumes) {
+            if (!v.isCompact()) {
+                return null;
+            }
+        }
+        boolean[] nonzero = new boolean[256];
+        Arrays.fill(nonzero, 1, 256, true);
+        return unionBox(volumes, nonzero);
+    }
 
     /** Bounding box of the voxels any reader marks as the structure ({@link Box#EMPTY} if none). */
     static Box unionBox(List<LabelVolume> masks, boolean[] lut) {
