@@ -24,6 +24,18 @@ public final class ConsensusOutputs {
      * @param staple STAPLE of all readers on this structure
      */
     public static float[] probabilityMap(List<LabelVolume> masks, int[] structureLabels, StapleResult staple) {
+        return probabilityMap(masks, structureLabels, staple, null);
+    }
+
+    /**
+     * {@link #probabilityMap(List, int[], StapleResult)} with the union box already known.
+     *
+     * @param unionBox bounding box of the voxels any reader marks as the structure (as
+     *     {@code CaseAgreement.unionBox()}; any box containing them gives the same map), or null to
+     *     compute it
+     */
+    public static float[] probabilityMap(List<LabelVolume> masks, int[] structureLabels, StapleResult staple,
+            Box unionBox) {
         Patterns.checkSameGrid(masks);
         if (staple.readers() != masks.size()) {
             throw new IllegalArgumentException("one mask per reader of the STAPLE result expected");
@@ -32,7 +44,7 @@ public final class ConsensusOutputs {
         Geometry g = masks.get(0).geometry();
         float[] out = new float[masks.get(0).voxelCount()];
         Arrays.fill(out, (float) staple.weightOfPattern(0));
-        Box box = Patterns.unionBox(masks, lut);
+        Box box = unionBox != null ? unionBox : Patterns.unionBox(masks, lut);
         if (box.isEmpty()) {
             return out;
         }
@@ -61,10 +73,19 @@ public final class ConsensusOutputs {
      */
     public static LabelVolume binaryConsensus(List<LabelVolume> masks, int[] structureLabels, StapleResult staple,
             long keep, int outputLabel) {
+        return binaryConsensus(masks, structureLabels, staple, keep, outputLabel, null);
+    }
+
+    /**
+     * {@link #binaryConsensus(List, int[], StapleResult, long, int)} with the union box already
+     * known ({@code unionBox} as in {@link #probabilityMap(List, int[], StapleResult, Box)}, or null).
+     */
+    public static LabelVolume binaryConsensus(List<LabelVolume> masks, int[] structureLabels, StapleResult staple,
+            long keep, int outputLabel, Box unionBox) {
         if (outputLabel < 1) {
             throw new IllegalArgumentException("output label must be positive");
         }
-        SignedSurface.BoxMask bm = SignedSurface.consensusMask(masks, structureLabels, staple, keep);
+        SignedSurface.BoxMask bm = SignedSurface.consensusMask(masks, structureLabels, staple, keep, unionBox);
         Geometry g = masks.get(0).geometry();
         int[] out = new int[masks.get(0).voxelCount()];
         for (int i = 0; i < bm.mask().length; i++) {
