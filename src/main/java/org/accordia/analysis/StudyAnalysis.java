@@ -288,7 +288,8 @@ public final class StudyAnalysis {
             PatternHistogram h = region == Protocol.ConsensusRegion.UNION_MARGIN ? unionMargin(ca) : ca.histogram();
             CaseReferences r = CaseReferences.compute(lc.caseId(), st.name(), names, centres, h,
                 ca.voxelVolumeMl(), staple);
-            List<ReaderPerformance> rows = r.rowsWithSurfaces(masks, st.labels().stream().mapToInt(Integer::intValue).toArray());
+            List<ReaderPerformance> rows = r.rowsWithSurfaces(masks, st.labels().stream().mapToInt(Integer::intValue).toArray(),
+                ca.unionBox());
             double maxHd95 = Double.NaN;
             for (PairMetrics p : ca.pairs()) {
                 if (p.hasDistances() && !(p.hd95Mm() <= maxHd95)) {

@@ -177,6 +177,18 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
      * @param structureLabels the label values that make up this structure
      */
     public List<ReaderPerformance> rowsWithSurfaces(List<LabelVolume> masks, int[] structureLabels) {
+        return rowsWithSurfaces(masks, structureLabels, null);
+    }
+
+    /**
+     * {@link #rowsWithSurfaces(List, int[])} with the union box already known.
+     *
+     * @param unionBox bounding box of the voxels any reader marks as the structure (as
+     *     {@code CaseAgreement.unionBox()}; any box containing them gives the same rows), or null to
+     *     compute it
+     */
+    public List<ReaderPerformance> rowsWithSurfaces(List<LabelVolume> masks, int[] structureLabels,
+            org.accordia.agreement.Borders.Box unionBox) {
         if (masks.size() != readers.size()) {
             throw new IllegalArgumentException("one mask per reader expected");
         }
@@ -201,7 +213,7 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
                 fullGrid |= s.weightOfPattern(0) >= StapleResult.CONSENSUS_THRESHOLD;
             }
         }
-        SignedSurface.Prepared prep = SignedSurface.prepare(masks, structureLabels, fullGrid);
+        SignedSurface.Prepared prep = SignedSurface.prepare(masks, structureLabels, fullGrid, unionBox);
         double[] mm = new double[base.size()];
         for (var e : byKeep.entrySet()) {
             List<Integer> rowsOf = e.getValue();

@@ -24,6 +24,18 @@ public final class ConsensusOutputs {
      * @param staple STAPLE of all readers on this structure
      */
     public static float[] probabilityMap(List<LabelVolume> masks, int[] structureLabels, StapleResult staple) {
+        return probabilityMap(masks, structureLabels, staple, null);
+    }
+
+    /**
+     * {@link #probabilityMap(List, int[], StapleResult)} with the union box already known.
+     *
+     * @param unionBox bounding box of the voxels any reader marks as the structure (as
+     *     {@code CaseAgreement.unionBox()}; any box containing them gives the same map), or null to
+     *     compute it
+     */
+    public static float[] probabilityMap(List<LabelVolume> masks, int[] structureLabels, StapleResult staple,
+            Box unionBox) {
         Patterns.checkSameGrid(masks);
         if (staple.readers() != masks.size()) {
             throw new IllegalArgumentException("one mask per reader of the STAPLE result expected");
@@ -32,7 +44,7 @@ public final class ConsensusOutputs {
         Geometry g = masks.get(0).geometry();
         float[] out = new float[masks.get(0).voxelCount()];
         Arrays.fill(out, (float) staple.weightOfPattern(0));
-        Box box = Patterns.unionBox(masks, lut);
+        Box box = unionBox != null ? unionBox : Patterns.unionBox(masks, lut);
         if (box.isEmpty()) {
             return out;
         }
@@ -61,10 +73,19 @@ public final class ConsensusOutputs {
      */
     public static LabelVolume binaryConsensus(List<LabelVolume> masks, int[] structureLabels, StapleResult staple,
             long keep, int outputLabel) {
+        return binaryConsensus(masks, structureLabels, staple, keep, outputLabel, null);
+    }
+
+    /**
+     * {@link #binaryConsensus(List, int[], StapleResult, long, int)} with the union box already
+     * known ({@code unionBox} as in {@link #probabilityMap(List, int[], StapleResult, Box)}, or null).
+     */
+    public static LabelVolume binaryConsensus(List<LabelVolume> masks, int[] structureLabels, StapleResult staple,
+            long keep, int outputLabel, Box unionBox) {
         if (outputLabel < 1) {
             throw new IllegalArgumentException("output label must be positive");
         }
-        SignedSurface.BoxMask bm = SignedSurface.consensusMask(masks, structureLabels, staple, keep);
+        SignedSurface.BoxMask bm = SignedSurface.consensusMask(masks, structureLabels, staple, keep, unionBox);
         Geometry g = masks.get(0).geometry();
         int[] out = new int[masks.get(0).voxelCount()];
         for (int i = 0; i < bm.mask().length; i++) {
@@ -96,41 +117,72 @@ public final class ConsensusOutputs {
         int b = h.bitsPerReader();
         int n = masks.get(0).voxelCount();
         int[] out = new int[n];
+        Box box = Patterns.nonzeroByteBox(masks);
+        if (box != null) {
+            // every reader holds 0 outside the box: tuple key 0 there
+            if (box.size() < n) {
+                int t = h.find(0L);
+                if (t < 0) {
+                    throw new IllegalArgumentException("volumes do not match the histogram");
+                }
+                if (labelPerTuple[t] != 0) {
+                    Arrays.fill(out, labelPerTuple[t]);
+                }
+            }
+            int[] d = masks.get(0).geometry().dims();
+            long[] key = new long[Math.max(1, box.nx())];
+            long[] last = {-1L, 0L};
+            for (int z = box.z0(); z < box.z1(); z++) {
+                for (int y = box.y0(); y < box.y1(); y++) {
+                    labelRun(masks, index, b, h, labelPerTuple, box.x0() + d[0] * (y + d[1] * z), box.nx(), key, out,
+                        last);
+                }
+            }
+            return LabelVolume.ofInts(masks.get(0).geometry(), out);
+        }
         long[] key = new long[4096];
-        long lastKey = -1;
-        int lastValue = 0;
+        long[] last = {-1L, 0L};
         for (int start = 0; start < n; start += key.length) {
-            int len = Math.min(key.length, n - start);
-            Arrays.fill(key, 0, len, 0L);
-            for (int j = 0; j < masks.size(); j++) {
-                LabelVolume v = masks.get(j);
-                int shift = b * j;
-                if (v.isCompact()) {
-                    byte[] src = v.bytes();
-                    for (int i = 0; i < len; i++) {
-                        key[i] |= (long) index[src[start + i] & 0xFF] << shift;
-                    }
-                } else {
-                    int[] src = v.ints();
-                    for (int i = 0; i < len; i++) {
-                        int val = src[start + i];
-                        key[i] |= (long) (val < index.length ? index[val] : 0) << shift;
-                    }
-                }
-            }
-            for (int i = 0; i < len; i++) {
-                if (key[i] != lastKey) {
-                    int t = h.find(key[i]);
-                    if (t < 0) {
-                        throw new IllegalArgumentException("volumes do not match the histogram");
-                    }
-                    lastKey = key[i];
-                    lastValue = labelPerTuple[t];
-                }
-                out[start + i] = lastValue;
-            }
+            labelRun(masks, index, b, h, labelPerTuple, start, Math.min(key.length, n - start), key, out, last);
         }
         return LabelVolume.ofInts(masks.get(0).geometry(), out);
+    }
+
+    /** Consensus labels of the voxels start..start+len-1; {@code last} = {last key, its value}. */
+    private static void labelRun(List<LabelVolume> masks, int[] index, int b, LabelTupleHistogram h,
+            int[] labelPerTuple, int start, int len, long[] key, int[] out, long[] last) {
+        Arrays.fill(key, 0, len, 0L);
+        for (int j = 0; j < masks.size(); j++) {
+            LabelVolume v = masks.get(j);
+            int shift = b * j;
+            if (v.isCompact()) {
+                byte[] src = v.bytes();
+                for (int i = 0; i < len; i++) {
+                    key[i] |= (long) index[src[start + i] & 0xFF] << shift;
+                }
+            } else {
+                int[] src = v.ints();
+                for (int i = 0; i < len; i++) {
+                    int val = src[start + i];
+                    key[i] |= (long) (val < index.length ? index[val] : 0) << shift;
+                }
+            }
+        }
+        long lastKey = last[0];
+        int lastValue = (int) last[1];
+        for (int i = 0; i < len; i++) {
+            if (key[i] != lastKey) {
+                int t = h.find(key[i]);
+                if (t < 0) {
+                    throw new IllegalArgumentException("volumes do not match the histogram");
+                }
+                lastKey = key[i];
+                lastValue = labelPerTuple[t];
+            }
+            out[start + i] = lastValue;
+        }
+        last[0] = lastKey;
+        last[1] = lastValue;
     }
 
     /** The multi-label STAPLE consensus label volume (ties → the result's undecided value). */

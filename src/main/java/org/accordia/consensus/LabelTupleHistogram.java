@@ -3,6 +3,7 @@ package org.accordia.consensus;
 import java.util.Arrays;
 import java.util.List;
 import java.util.TreeSet;
+import org.accordia.agreement.Borders.Box;
 import org.accordia.io.LabelVolume;
 
 /**
@@ -110,30 +111,52 @@ public final class LabelTupleHistogram {
         int n = volumes.get(0).voxelCount();
         int totalBits = b * r;
         Counter counter = totalBits <= DENSE_BITS ? new DenseCounter(1 << totalBits) : new HashCounter();
-        long[] block = new long[BLOCK];
-        for (int start = 0; start < n; start += BLOCK) {
-            int len = Math.min(BLOCK, n - start);
-            Arrays.fill(block, 0, len, 0L);
-            for (int j = 0; j < r; j++) {
-                LabelVolume v = volumes.get(j);
-                int shift = b * j;
-                if (v.isCompact()) {
-                    byte[] src = v.bytes();
-                    for (int i = 0; i < len; i++) {
-                        block[i] |= (long) byteIndex[src[start + i] & 0xFF] << shift;
-                    }
-                } else {
-                    int[] src = v.ints();
-                    for (int i = 0; i < len; i++) {
-                        int val = src[start + i];
-                        block[i] |= (long) (val < index.length ? index[val] : 0) << shift;
-                    }
+        Box box = Patterns.nonzeroByteBox(volumes);
+        if (box == null) {
+            long[] block = new long[BLOCK];
+            for (int start = 0; start < n; start += BLOCK) {
+                int len = Math.min(BLOCK, n - start);
+                fillKeys(volumes, index, byteIndex, b, start, len, block);
+                counter.add(block, len);
+            }
+        } else {
+            // every reader holds 0 outside the box: those voxels all have tuple key 0
+            int[] d = volumes.get(0).geometry().dims();
+            int len = box.nx();
+            long[] block = new long[Math.max(1, len)];
+            for (int z = box.z0(); z < box.z1(); z++) {
+                for (int y = box.y0(); y < box.y1(); y++) {
+                    fillKeys(volumes, index, byteIndex, b, box.x0() + d[0] * (y + d[1] * z), len, block);
+                    counter.add(block, len);
                 }
             }
-            counter.add(block, len);
+            if (n - box.size() > 0) {
+                counter.addCount(0L, n - box.size());
+            }
         }
         long[][] kc = counter.sorted();
         return new LabelTupleHistogram(r, labels, kc[0], kc[1]);
+    }
+
+    private static void fillKeys(List<LabelVolume> volumes, int[] index, byte[] byteIndex, int b, int start, int len,
+            long[] block) {
+        Arrays.fill(block, 0, len, 0L);
+        for (int j = 0; j < volumes.size(); j++) {
+            LabelVolume v = volumes.get(j);
+            int shift = b * j;
+            if (v.isCompact()) {
+                byte[] src = v.bytes();
+                for (int i = 0; i < len; i++) {
+                    block[i] |= (long) byteIndex[src[start + i] & 0xFF] << shift;
+                }
+            } else {
+                int[] src = v.ints();
+                for (int i = 0; i < len; i++) {
+                    int val = src[start + i];
+                    block[i] |= (long) (val < index.length ? index[val] : 0) << shift;
+                }
+            }
+        }
     }
 
     /** Builds with the label set = 0 plus every value present in any volume (an extra scan each). */
@@ -148,6 +171,8 @@ public final class LabelTupleHistogram {
 
     private interface Counter {
         void add(long[] keys, int len);
+
+        void addCount(long key, long count);
 
         long[][] sorted();
     }
@@ -164,6 +189,11 @@ public final class LabelTupleHistogram {
             for (int i = 0; i < len; i++) {
                 c[(int) keys[i]]++;
             }
+        }
+
+        @Override
+        public void addCount(long key, long count) {
+            c[(int) key] += count;
         }
 
         @Override
@@ -220,6 +250,21 @@ public final class LabelTupleHistogram {
                 lastKey = key;
                 lastSlot = slot;
             }
+        }
+
+        @Override
+        public void addCount(long key, long count) {
+            int slot = find(key);
+            if (k[slot] == -1L) {
+                k[slot] = key;
+                size++;
+                if (size * 2 > k.length) {
+                    grow();
+                    slot = find(key);
+                }
+            }
+            c[slot] += count;
+            lastKey = -1;
         }
 
         private int find(long key) {

@@ -1,5 +1,9 @@
 package org.accordia.consensus;
 
+import java.lang.invoke.MethodHandles;
+import java.lang.invoke.VarHandle;
+import java.nio.ByteOrder;
+import java.util.Arrays;
 import java.util.List;
 import org.accordia.agreement.Borders.Box;
 import org.accordia.io.LabelVolume;
@@ -58,20 +62,54 @@ final class Patterns {
         return out;
     }
 
+    private static final VarHandle LONGS = MethodHandles.byteArrayViewVarHandle(long[].class, ByteOrder.LITTLE_ENDIAN);
+
+    /**
+     * Bounding box of the voxels where any volume holds a non-zero value, when every volume is
+     * byte-stored ({@link Box#EMPTY} if all are 0); null when some volume stores ints (callers then
+     * use the whole grid).
+     */
+    static Box nonzeroByteBox(List<LabelVolume> volumes) {
+        for (LabelVolume v : volumes) {
+            if (!v.isCompact()) {
+                return null;
+            }
+        }
+        boolean[] nonzero = new boolean[256];
+        Arrays.fill(nonzero, 1, 256, true);
+        return unionBox(volumes, nonzero);
+    }
+
     /** Bounding box of the voxels any reader marks as the structure ({@link Box#EMPTY} if none). */
     static Box unionBox(List<LabelVolume> masks, boolean[] lut) {
         int[] d = masks.get(0).geometry().dims();
         int nx = d[0];
         int ny = d[1];
         int nz = d[2];
-        int x0 = Integer.MAX_VALUE;
-        int y0 = Integer.MAX_VALUE;
-        int z0 = Integer.MAX_VALUE;
-        int x1 = -1;
-        int y1 = -1;
-        int z1 = -1;
+        // {x0, y0, z0, x1, y1, z1}, inclusive
+        int[] ext = {Integer.MAX_VALUE, Integer.MAX_VALUE, Integer.MAX_VALUE, -1, -1, -1};
         for (LabelVolume m : masks) {
             byte[] b = m.bytes();
+            if (b != null && !lut[0]) {
+                // label 0 is outside the structure: an all-zero 8-byte word holds no member
+                int n = b.length;
+                int words = n & ~7;
+                for (int i = 0; i < words; i += 8) {
+                    if ((long) LONGS.get(b, i) != 0L) {
+                        for (int k = i; k < i + 8; k++) {
+                            if (lut[b[k] & 0xFF]) {
+                                extend(ext, k, nx, ny);
+                            }
+                        }
+                    }
+                }
+                for (int k = words; k < n; k++) {
+                    if (lut[b[k] & 0xFF]) {
+                        extend(ext, k, nx, ny);
+                    }
+                }
+                continue;
+            }
             int[] v = m.ints();
             int i = 0;
             for (int z = 0; z < nz; z++) {
@@ -88,17 +126,30 @@ final class Patterns {
                         }
                     }
                     if (rowMin >= 0) {
-                        x0 = Math.min(x0, rowMin);
-                        x1 = Math.max(x1, rowMax);
-                        y0 = Math.min(y0, y);
-                        y1 = Math.max(y1, y);
-                        z0 = Math.min(z0, z);
-                        z1 = Math.max(z1, z);
+                        ext[0] = Math.min(ext[0], rowMin);
+                        ext[3] = Math.max(ext[3], rowMax);
+                        ext[1] = Math.min(ext[1], y);
+                        ext[4] = Math.max(ext[4], y);
+                        ext[2] = Math.min(ext[2], z);
+                        ext[5] = Math.max(ext[5], z);
                     }
                 }
             }
         }
-        return x1 < 0 ? Box.EMPTY : new Box(x0, y0, z0, x1 + 1, y1 + 1, z1 + 1);
+        return ext[3] < 0 ? Box.EMPTY : new Box(ext[0], ext[1], ext[2], ext[3] + 1, ext[4] + 1, ext[5] + 1);
+    }
+
+    private static void extend(int[] ext, int index, int nx, int ny) {
+        int x = index % nx;
+        int yz = index / nx;
+        int y = yz % ny;
+        int z = yz / ny;
+        ext[0] = Math.min(ext[0], x);
+        ext[1] = Math.min(ext[1], y);
+        ext[2] = Math.min(ext[2], z);
+        ext[3] = Math.max(ext[3], x);
+        ext[4] = Math.max(ext[4], y);
+        ext[5] = Math.max(ext[5], z);
     }
 
     /** The decision pattern of all readers at every voxel of {@code box} (x fastest in the box). */

@@ -45,7 +45,20 @@ public final class SignedSurface {
      */
     public static BoxMask consensusMask(List<LabelVolume> masks, int[] structureLabels, StapleResult consensus,
             long keep) {
-        Prepared p = prepare(masks, structureLabels, consensus.weightOfPattern(0) >= StapleResult.CONSENSUS_THRESHOLD);
+        return consensusMask(masks, structureLabels, consensus, keep, null);
+    }
+
+    /**
+     * {@link #consensusMask(List, int[], StapleResult, long)} with the union box already known.
+     *
+     * @param unionBox bounding box of the voxels any reader marks as the structure (as
+     *     {@code CaseAgreement.unionBox()}; any box containing them gives the same mask), or null to
+     *     compute it
+     */
+    public static BoxMask consensusMask(List<LabelVolume> masks, int[] structureLabels, StapleResult consensus,
+            long keep, Box unionBox) {
+        Prepared p = prepare(masks, structureLabels, consensus.weightOfPattern(0) >= StapleResult.CONSENSUS_THRESHOLD,
+            unionBox);
         return new BoxMask(p.box, p.consensus(consensus, keep));
     }
 
@@ -94,11 +107,16 @@ public final class SignedSurface {
     }
 
     static Prepared prepare(List<LabelVolume> masks, int[] structureLabels, boolean fullGrid) {
+        return prepare(masks, structureLabels, fullGrid, null);
+    }
+
+    /** As above; {@code unionBox} = the readers' union bounding box when known, else null. */
+    static Prepared prepare(List<LabelVolume> masks, int[] structureLabels, boolean fullGrid, Box unionBox) {
         Patterns.checkSameGrid(masks);
         boolean[] lut = Patterns.lut(structureLabels);
         int[] d = masks.get(0).geometry().dims();
         Box box = fullGrid ? Box.grid(d[0], d[1], d[2])
-            : Patterns.unionBox(masks, lut).grow(1, d[0], d[1], d[2]);
+            : (unionBox != null ? unionBox : Patterns.unionBox(masks, lut)).grow(1, d[0], d[1], d[2]);
         long[] pat = Patterns.patternsInBox(masks, lut, box);
         return new Prepared(box, pat, masks.size(), masks.get(0).geometry().spacingMm());
     }

@@ -102,11 +102,12 @@ public final class ConsensusFiles implements CaseSink {
             int[] labels = st.labelArray();
             if (folder != null) {
                 String stem = dir + "/" + OutputFolder.safeFileName(st.name());
-                float[] w = ConsensusOutputs.probabilityMap(masks, labels, refs.all());
+                Box union = sc.agreement().unionBox();
+                float[] w = ConsensusOutputs.probabilityMap(masks, labels, refs.all(), union);
                 folder.writeAtomically(stem + "_probability.nii.gz",
                     out -> NiftiWriter.writeProbability(out, lc.geometry(), w, true));
                 LabelVolume bin = ConsensusOutputs.binaryConsensus(masks, labels, refs.all(),
-                    refs.keepMask("all", 0), 1);
+                    refs.keepMask("all", 0), 1, union);
                 folder.writeAtomically(stem + "_consensus.nii.gz", out -> NiftiWriter.writeLabels(out, bin, true));
             }
         }
@@ -170,7 +171,7 @@ public final class ConsensusFiles implements CaseSink {
             Math.min(g.ny(), union.y1() + PICTURE_MARGIN_VOXELS), slice.z() + 1);
         List<boolean[]> masks = masksInBox(lc.masks(), sc.structure(), crop);
         float[] w = ConsensusOutputs.probabilityMap(lc.masks(), sc.structure().labelArray(),
-            work.references().get(pick).all());
+            work.references().get(pick).all(), union);
         float[] prob = new float[crop.size()];
         for (int i = 0; i < prob.length; i++) {
             prob[i] = w[crop.gridIndex(i, g.nx(), g.ny())];
