@@ -7,6 +7,7 @@ import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
+import org.accordia.demo.DemoGenerator;
 import org.accordia.demo.DemoSpec;
 import org.accordia.shift.GroupEffect;
 
@@ -72,12 +73,12 @@ public final class Calibration {
 
         /** The spec of null run i: no centre shift, no missed lesion, no hard case. */
         public DemoSpec nullSpec(int i) {
-            return base.withSeed(mix(seed, 1, i)).withPlants(0, 0, 0);
+            return base.withSeed(DemoGenerator.mix(seed, 1, i)).withPlants(0, 0, 0);
         }
 
         /** The spec of shifted run i: the generator's shifted centre draws {@code shiftMm} wider. */
         public DemoSpec shiftedSpec(int i) {
-            return base.withSeed(mix(seed, 2, i)).withPlants(shiftMm, 0, 0);
+            return base.withSeed(DemoGenerator.mix(seed, 2, i)).withPlants(shiftMm, 0, 0);
         }
 
         /** Largest null flag rate that passes: α + 2·sqrt(α(1 − α)/runs). */
@@ -208,18 +209,5 @@ public final class Calibration {
             }
         }
         return out;
-    }
-
-    /** SplitMix64 finaliser of the seed and the parts (independent streams per run). */
-    static long mix(long seed, long... parts) {
-        long h = seed;
-        for (long p : parts) {
-            h += 0x9E3779B97F4A7C15L * (p + 1);
-            long z = h;
-            z = (z ^ (z >>> 30)) * 0xBF58476D1CE4E5B9L;
-            z = (z ^ (z >>> 27)) * 0x94D049BB133111EBL;
-            h = z ^ (z >>> 31);
-        }
-        return h;
     }
 }

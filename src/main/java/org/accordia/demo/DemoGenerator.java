@@ -98,8 +98,11 @@ public final class DemoGenerator {
         return String.format(Locale.ROOT, "case%0" + width + "d", c + 1);
     }
 
-    /** SplitMix64 finaliser of the seed and the parts, so every stream is independent. */
-    static long mix(long seed, long... parts) {
+    /**
+     * SplitMix64 finaliser of the seed and the parts, so every stream is independent; also used
+     * to derive the seeds of simulated studies.
+     */
+    public static long mix(long seed, long... parts) {
         long h = seed;
         for (long p : parts) {
             h += 0x9E3779B97F4A7C15L * (p + 1);

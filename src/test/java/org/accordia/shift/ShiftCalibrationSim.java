@@ -37,18 +37,6 @@ import org.junit.jupiter.api.condition.EnabledIfSystemProperty;
 @EnabledIfSystemProperty(named = "accordia.sim.runs", matches = "\\d+")
 class ShiftCalibrationSim {
 
-    static long mix(long seed, long... parts) {
-        long h = seed;
-        for (long p : parts) {
-            h += 0x9E3779B97F4A7C15L * (p + 1);
-            long z = h;
-            z = (z ^ (z >>> 30)) * 0xBF58476D1CE4E5B9L;
-            z = (z ^ (z >>> 27)) * 0x94D049BB133111EBL;
-            h = z ^ (z >>> 31);
-        }
-        return h;
-    }
-
     record Outcome(boolean shifted, int index, long genSeed, List<String> oldFlags, List<String> newFlags,
             double p, String error, List<String> uncertain, String verdict) {
     }
@@ -113,7 +101,7 @@ class ShiftCalibrationSim {
             for (boolean shifted : new boolean[] {false, true}) {
                 final int k = i;
                 futures.add(pool.submit(() -> {
-                    long genSeed = mix(seed, shifted ? 2 : 1, k);
+                    long genSeed = DemoGenerator.mix(seed, shifted ? 2 : 1, k);
                     DemoSpec spec = base.withSeed(genSeed).withPlants(shifted ? shiftMm : 0, 0, 0);
                     try {
                         LabelResult l = analyse(spec, seed + k);
