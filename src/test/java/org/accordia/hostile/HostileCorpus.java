@@ -11,6 +11,7 @@ import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.zip.Deflater;
 import java.util.zip.GZIPOutputStream;
+import org.accordia.io.TestFiles;
 
 /**
  * Writes the committed corpus of bad inputs, {@code src/test/resources/hostile/<kind>/}: each
@@ -92,33 +93,7 @@ public final class HostileCorpus {
         return h;
     }
 
-    static byte[] floats(ByteOrder order, float... v) {
-        ByteBuffer b = ByteBuffer.allocate(4 * v.length).order(order);
-        for (float f : v) {
-            b.putFloat(f);
-        }
-        return b.array();
-    }
 
-    static byte[] concat(byte[]... parts) {
-        ByteArrayOutputStream out = new ByteArrayOutputStream();
-        for (byte[] p : parts) {
-            out.writeBytes(p);
-        }
-        return out.toByteArray();
-    }
-
-    static byte[] gzip(byte[] data) throws IOException {
-        ByteArrayOutputStream out = new ByteArrayOutputStream();
-        try (GZIPOutputStream gz = new GZIPOutputStream(out)) {
-            gz.write(data);
-        }
-        return out.toByteArray();
-    }
-
-    static byte[] ascii(String s) {
-        return s.getBytes(StandardCharsets.US_ASCII);
-    }
 
     /** Writes the whole corpus under {@code out}. */
     public static void write(Path out) throws IOException {
@@ -247,6 +222,22 @@ public final class HostileCorpus {
     }
 
     /** A NIfTI gzip whose stream holds {@code header + data} followed by zeros up to {@code total} bytes. */
+    static byte[] floats(ByteOrder order, float... v) {
+        return TestFiles.floats(order, v);
+    }
+
+    static byte[] concat(byte[]... parts) {
+        return TestFiles.concat(parts);
+    }
+
+    static byte[] gzip(byte[] data) throws IOException {
+        return TestFiles.gzip(data);
+    }
+
+    static byte[] ascii(String s) {
+        return TestFiles.ascii(s);
+    }
+
     static byte[] bomb(byte[] niftiFile, int total) throws IOException {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         try (OutputStream gz = new GZIPOutputStream(out, 1 << 16) {

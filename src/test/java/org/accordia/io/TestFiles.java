@@ -10,16 +10,16 @@ import java.nio.file.Path;
 import java.util.zip.DeflaterOutputStream;
 import java.util.zip.GZIPOutputStream;
 
-/** Builders for small test files. */
-final class TestFiles {
+/** Builders for small test files (also used by the hostile-input corpus). */
+public final class TestFiles {
     private TestFiles() {
     }
 
-    static byte[] ascii(String s) {
+    public static byte[] ascii(String s) {
         return s.getBytes(StandardCharsets.US_ASCII);
     }
 
-    static byte[] concat(byte[]... parts) {
+    public static byte[] concat(byte[]... parts) {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         for (byte[] p : parts) {
             out.writeBytes(p);
@@ -27,7 +27,7 @@ final class TestFiles {
         return out.toByteArray();
     }
 
-    static byte[] gzip(byte[] data) throws IOException {
+    public static byte[] gzip(byte[] data) throws IOException {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         try (GZIPOutputStream gz = new GZIPOutputStream(out)) {
             gz.write(data);
@@ -35,7 +35,7 @@ final class TestFiles {
         return out.toByteArray();
     }
 
-    static byte[] zlib(byte[] data) throws IOException {
+    public static byte[] zlib(byte[] data) throws IOException {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
         try (DeflaterOutputStream z = new DeflaterOutputStream(out)) {
             z.write(data);
@@ -43,7 +43,7 @@ final class TestFiles {
         return out.toByteArray();
     }
 
-    static byte[] shorts(ByteOrder order, int... values) {
+    public static byte[] shorts(ByteOrder order, int... values) {
         ByteBuffer b = ByteBuffer.allocate(2 * values.length).order(order);
         for (int v : values) {
             b.putShort((short) v);
@@ -51,7 +51,7 @@ final class TestFiles {
         return b.array();
     }
 
-    static byte[] floats(ByteOrder order, float... values) {
+    public static byte[] floats(ByteOrder order, float... values) {
         ByteBuffer b = ByteBuffer.allocate(4 * values.length).order(order);
         for (float v : values) {
             b.putFloat(v);
@@ -59,7 +59,7 @@ final class TestFiles {
         return b.array();
     }
 
-    static byte[] bytes(int... values) {
+    public static byte[] bytes(int... values) {
         byte[] b = new byte[values.length];
         for (int i = 0; i < values.length; i++) {
             b[i] = (byte) values[i];
@@ -67,7 +67,7 @@ final class TestFiles {
         return b;
     }
 
-    static Path write(Path file, byte[] content) throws IOException {
+    public static Path write(Path file, byte[] content) throws IOException {
         Files.createDirectories(file.toAbsolutePath().getParent());
         return Files.write(file, content);
     }
