@@ -170,34 +170,10 @@ public final class Borders {
      * @param member 256 flags: which label values belong to the structure
      */
     public static boolean[] borderMaskInBox(byte[] labels, boolean[] member, int nx, int ny, int nz, Box box) {
-        DistanceTransform.checkBox(labels.length, nx, ny, nz);
-        if (member.length != 256) {
-            throw new IllegalArgumentException("member table must have 256 entries");
-        }
-        checkInside(box, nx, ny, nz);
+        int[] idx = borderIndicesInBox(labels, member, nx, ny, nz, box);
         boolean[] out = new boolean[box.size()];
-        if (box.isEmpty()) {
-            return out;
-        }
-        boolean three = nz > 1;
-        int plane = nx * ny;
-        int o = 0;
-        for (int z = box.z0(); z < box.z1(); z++) {
-            boolean zEdge = three && (z == 0 || z == nz - 1);
-            for (int y = box.y0(); y < box.y1(); y++) {
-                int row = nx * (y + ny * z);
-                boolean yzEdge = zEdge || y == 0 || y == ny - 1;
-                for (int x = box.x0(); x < box.x1(); x++, o++) {
-                    int i = row + x;
-                    if (!member[labels[i] & 0xFF]) {
-                        continue;
-                    }
-                    out[o] = yzEdge || x == 0 || x == nx - 1
-                        || !member[labels[i - 1] & 0xFF] || !member[labels[i + 1] & 0xFF]
-                        || !member[labels[i - nx] & 0xFF] || !member[labels[i + nx] & 0xFF]
-                        || (three && (!member[labels[i - plane] & 0xFF] || !member[labels[i + plane] & 0xFF]));
-                }
-            }
+        for (int i : idx) {
+            out[i] = true;
         }
         return out;
     }
