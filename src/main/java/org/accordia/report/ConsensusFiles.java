@@ -32,7 +32,9 @@ import org.accordia.study.Structure;
  *       (the largest label value + 1).</li>
  * </ul>
  * Case and structure names pass through {@link OutputFolder#safeFileName}; every file is written
- * by {@link OutputFolder#writeAtomically}.
+ * by {@link OutputFolder#writeAtomically}, gzip at deflate's fastest level
+ * ({@link NiftiWriter.Compression#FAST}: these files are rewritten on every run, and compressing the
+ * zeros of a full-grid map at the default level took longer than any other output step).
  *
  * <p>For the report's pictures it keeps, at any time, only the {@code keep} most contentious cases
  * seen so far (largest disagreement score, ties by case name, so the choice does not depend on the
@@ -44,6 +46,9 @@ import org.accordia.study.Structure;
 public final class ConsensusFiles implements CaseSink {
     /** In-plane margin around the readers' union on the pictures, voxels. */
     static final int PICTURE_MARGIN_VOXELS = 12;
+
+    /** Encoding of every file written here. */
+    private static final NiftiWriter.Compression GZIP = NiftiWriter.Compression.FAST;
 
     /**
      * One candidate picture: a slice cropped to {@code box} in-plane.
@@ -105,15 +110,15 @@ public final class ConsensusFiles implements CaseSink {
                 Box union = sc.agreement().unionBox();
                 float[] w = ConsensusOutputs.probabilityMap(masks, labels, refs.all(), union);
                 folder.writeAtomically(stem + "_probability.nii.gz",
-                    out -> NiftiWriter.writeProbability(out, lc.geometry(), w, true));
+                    out -> NiftiWriter.writeProbability(out, lc.geometry(), w, GZIP));
                 LabelVolume bin = ConsensusOutputs.binaryConsensus(masks, labels, refs.all(),
                     refs.keepMask("all", 0), 1, union);
-                folder.writeAtomically(stem + "_consensus.nii.gz", out -> NiftiWriter.writeLabels(out, bin, true));
+                folder.writeAtomically(stem + "_consensus.nii.gz", out -> NiftiWriter.writeLabels(out, bin, GZIP));
             }
         }
         if (folder != null && work.multiLabel() != null) {
             LabelVolume ml = ConsensusOutputs.labelConsensus(masks, work.multiLabel());
-            folder.writeAtomically(dir + "/labels_consensus.nii.gz", out -> NiftiWriter.writeLabels(out, ml, true));
+            folder.writeAtomically(dir + "/labels_consensus.nii.gz", out -> NiftiWriter.writeLabels(out, ml, GZIP));
         }
         if (keep > 0 && masks.size() >= 2) {
             considerPicture(work);

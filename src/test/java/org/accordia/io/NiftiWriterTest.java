@@ -121,6 +121,49 @@ class NiftiWriterTest {
     }
 
     @Test
+    void compressionLevelsChangeOnlyTheDeflateStream() throws Exception {
+        // mostly zeros with a block of values, like a consensus map
+        Geometry g = Geometry.axisAligned(64, 48, 20, 0.7, 0.7, 1.5);
+        int n = (int) g.voxelCount();
+        float[] p = new float[n];
+        byte[] labels = new byte[n];
+        Random rnd = new Random(11);
+        for (int i = 20_000; i < 24_000; i++) {
+            p[i] = rnd.nextInt(9) / 8f;
+            labels[i] = (byte) (p[i] >= 0.5f ? 1 : 0);
+        }
+        LabelVolume v = LabelVolume.ofBytes(g, labels);
+        java.io.ByteArrayOutputStream fastP = new java.io.ByteArrayOutputStream();
+        java.io.ByteArrayOutputStream smallP = new java.io.ByteArrayOutputStream();
+        java.io.ByteArrayOutputStream rawP = new java.io.ByteArrayOutputStream();
+        NiftiWriter.writeProbability(fastP, g, p, NiftiWriter.Compression.FAST);
+        NiftiWriter.writeProbability(smallP, g, p, NiftiWriter.Compression.SMALL);
+        NiftiWriter.writeProbability(rawP, g, p, NiftiWriter.Compression.NONE);
+        // the same NIfTI bytes inside every gzip stream (RFC 1952 decoding by java.util.zip)
+        assertArrayEquals(rawP.toByteArray(), gunzip(fastP.toByteArray()));
+        assertArrayEquals(rawP.toByteArray(), gunzip(smallP.toByteArray()));
+        assertFalse(java.util.Arrays.equals(fastP.toByteArray(), smallP.toByteArray()), "the levels differ");
+        // SMALL is what a .nii.gz path gets; FAST is deterministic too
+        Path path = dir.resolve("p.nii.gz");
+        NiftiWriter.writeProbability(path, g, p);
+        assertArrayEquals(smallP.toByteArray(), Files.readAllBytes(path));
+        java.io.ByteArrayOutputStream again = new java.io.ByteArrayOutputStream();
+        NiftiWriter.writeProbability(again, g, p, NiftiWriter.Compression.FAST);
+        assertArrayEquals(fastP.toByteArray(), again.toByteArray());
+        java.io.ByteArrayOutputStream fastL = new java.io.ByteArrayOutputStream();
+        java.io.ByteArrayOutputStream rawL = new java.io.ByteArrayOutputStream();
+        NiftiWriter.writeLabels(fastL, v, NiftiWriter.Compression.FAST);
+        NiftiWriter.writeLabels(rawL, v, NiftiWriter.Compression.NONE);
+        assertArrayEquals(rawL.toByteArray(), gunzip(fastL.toByteArray()));
+    }
+
+    private static byte[] gunzip(byte[] gz) throws java.io.IOException {
+        try (var in = new GZIPInputStream(new java.io.ByteArrayInputStream(gz))) {
+            return in.readAllBytes();
+        }
+    }
+
+    @Test
     void headerFieldsFollowNifti1() throws Exception {
         Geometry g = oblique();
         Path out = dir.resolve("h.nii.gz");
