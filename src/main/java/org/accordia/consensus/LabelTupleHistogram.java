@@ -93,6 +93,14 @@ public final class LabelTupleHistogram {
      */
     public static LabelTupleHistogram build(List<LabelVolume> volumes, int[] labels) {
         Patterns.checkSameGrid(volumes);
+        return build(volumes, labels, Patterns.nonzeroByteBox(volumes));
+    }
+
+    /**
+     * As {@link #build(List, int[])}; {@code box} = the bounding box of every non-zero voxel of
+     * every volume ({@link Patterns#nonzeroByteBox}), or null to pass over the whole grid.
+     */
+    private static LabelTupleHistogram build(List<LabelVolume> volumes, int[] labels, Box box) {
         checkLabels(labels);
         int r = volumes.size();
         int b = bitsFor(labels.length);
@@ -111,7 +119,6 @@ public final class LabelTupleHistogram {
         int n = volumes.get(0).voxelCount();
         int totalBits = b * r;
         Counter counter = totalBits <= DENSE_BITS ? new DenseCounter(1 << totalBits) : new HashCounter();
-        Box box = Patterns.nonzeroByteBox(volumes);
         if (box == null) {
             long[] block = new long[BLOCK];
             for (int start = 0; start < n; start += BLOCK) {
@@ -159,14 +166,41 @@ public final class LabelTupleHistogram {
         }
     }
 
-    /** Builds with the label set = 0 plus every value present in any volume (an extra scan each). */
+    /**
+     * Builds with the label set = 0 plus every value present in any volume. For byte-stored
+     * volumes the values are collected inside the bounding box of the non-zero voxels only (all
+     * are inside it); otherwise by a full scan of each volume.
+     */
     public static LabelTupleHistogram build(List<LabelVolume> volumes) {
+        Patterns.checkSameGrid(volumes);
+        Box box = Patterns.nonzeroByteBox(volumes);
         TreeSet<Integer> set = new TreeSet<>();
         set.add(0);
-        for (LabelVolume v : volumes) {
-            set.addAll(v.labelCounts().keySet());
+        if (box == null) {
+            for (LabelVolume v : volumes) {
+                set.addAll(v.labelCounts().keySet());
+            }
+        } else {
+            boolean[] seen = new boolean[256];
+            int[] d = volumes.get(0).geometry().dims();
+            for (LabelVolume v : volumes) {
+                byte[] b = v.bytes();
+                for (int z = box.z0(); z < box.z1(); z++) {
+                    for (int y = box.y0(); y < box.y1(); y++) {
+                        int row = box.x0() + d[0] * (y + d[1] * z);
+                        for (int i = row; i < row + box.nx(); i++) {
+                            seen[b[i] & 0xFF] = true;
+                        }
+                    }
+                }
+            }
+            for (int value = 1; value < 256; value++) {
+                if (seen[value]) {
+                    set.add(value);
+                }
+            }
         }
-        return build(volumes, set.stream().mapToInt(Integer::intValue).toArray());
+        return build(volumes, set.stream().mapToInt(Integer::intValue).toArray(), box);
     }
 
     private interface Counter {

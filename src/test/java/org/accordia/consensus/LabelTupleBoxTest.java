@@ -16,7 +16,8 @@ import org.junit.jupiter.params.provider.CsvSource;
  * The label-tuple histogram and the label consensus volume, which confine their voxel pass to the
  * bounding box of non-zero voxels when every volume is byte-stored, against the plain definition:
  * brute-force tuple counts over every voxel (common practice), and the same volumes stored as ints
- * (which take the whole-grid pass).
+ * (which take the whole-grid pass). The label set found from the data (values collected inside the
+ * box) against every value present.
  */
 class LabelTupleBoxTest {
 
@@ -73,6 +74,16 @@ class LabelTupleBoxTest {
                 assertEquals(e.getValue(), hi.count(t));
                 t++;
             }
+            // the label set found from the data: inside the non-zero box (bytes) or by a full scan (ints)
+            java.util.TreeSet<Integer> present = new java.util.TreeSet<>(List.of(0));
+            for (int[] r : raw) {
+                for (int v : r) {
+                    present.add(v);
+                }
+            }
+            LabelTupleHistogram foundB = LabelTupleHistogram.build(bytes);
+            assertArrayEquals(present.stream().mapToInt(Integer::intValue).toArray(), foundB.labels());
+            assertEquals(LabelTupleHistogram.build(ints), foundB);
             // a consensus value per tuple that is non-zero for the all-background tuple too
             int[] perTuple = new int[hb.size()];
             for (int s = 0; s < perTuple.length; s++) {
