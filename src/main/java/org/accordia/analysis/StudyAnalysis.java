@@ -16,9 +16,11 @@ import java.util.TreeSet;
 import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
+import java.util.concurrent.ForkJoinPool;
 import java.util.concurrent.Future;
 import java.util.concurrent.Semaphore;
 import java.util.concurrent.atomic.AtomicReference;
+import java.util.stream.IntStream;
 import org.accordia.agreement.CaseAgreement;
 import org.accordia.agreement.CaseAgreementEngine;
 import org.accordia.agreement.PairMetrics;
@@ -149,9 +151,8 @@ public final class StudyAnalysis {
         Map<ReaderId, String> keys = readerKeys(readers);
         // structures are independent at the study level: one task each, results in protocol order
         LabelResult[] labels = new LabelResult[structures.size()];
-        List<String> labelIds = structures.stream().map(Structure::name).toList();
-        forEachCase(labelIds, options.threads(), s -> labels[s] = studyLevel(s, structures.get(s), cases, readers,
-            keys, protocol, settings, options.readerSummaries()));
+        inStudyPool(options.threads(), structures.size(), s -> labels[s] = studyLevel(s, structures.get(s), cases,
+            readers, keys, protocol, settings, options.readerSummaries()));
         TreeSet<String> centres = new TreeSet<>();
         readers.forEach(r -> centres.add(r.centre()));
         return new StudyResult(protocol.withSeed(settings.seed()), settings, structures, List.copyOf(readers),
@@ -223,6 +224,33 @@ public final class StudyAnalysis {
         }
         if (t != null) {
             throw new IllegalStateException(t);
+        }
+    }
+
+    /**
+     * Runs {@code task} for 0 ≤ s &lt; count as a parallel stream inside a fork-join pool of
+     * {@code threads} workers. The parallel resampling inside a structure's shift analysis (the
+     * variance components' parametric bootstrap) runs in the same pool, so a structure that finishes
+     * early leaves its worker to the others' resamples, and no more than {@code threads} workers
+     * run in all. Unchecked failures are rethrown as they are.
+     */
+    private static void inStudyPool(int threads, int count, java.util.function.IntConsumer task) {
+        ForkJoinPool pool = new ForkJoinPool(Math.max(1, threads));
+        try {
+            pool.submit(() -> IntStream.range(0, count).parallel().forEach(task)).get();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new IllegalStateException("analysis interrupted", e);
+        } catch (ExecutionException e) {
+            if (e.getCause() instanceof RuntimeException re) {
+                throw re;
+            }
+            if (e.getCause() instanceof Error err) {
+                throw err;
+            }
+            throw new IllegalStateException(e.getCause());
+        } finally {
+            pool.shutdownNow();
         }
     }
 

@@ -5,6 +5,7 @@ import java.util.Arrays;
 import java.util.List;
 import java.util.Random;
 import java.util.TreeMap;
+import java.util.stream.IntStream;
 
 import org.apache.commons.math3.distribution.ChiSquaredDistribution;
 
@@ -125,8 +126,14 @@ public final class VarianceComponents {
         int failedRefits = 0;
         double[][] boot = new double[k + 1][resamples];
         Random random = RemlFit.random(seed);
+        double[][] simulated = new double[resamples][];
         for (int b = 0; b < resamples; b++) {
-            RemlResult refit = model.fit(model.simulate(fit, random), fit.theta());
+            simulated[b] = model.simulate(fit, random); // one seeded stream, in resample order
+        }
+        RemlResult[] refits = new RemlResult[resamples];
+        inParallel(resamples, b -> refits[b] = model.fit(simulated[b], fit.theta()));
+        for (int b = 0; b < resamples; b++) {
+            RemlResult refit = refits[b];
             failedRefits += refit.converged() ? 0 : 1;
             double[] v = refit.variances();
             for (int j = 0; j < k; j++) {
@@ -170,13 +177,24 @@ public final class VarianceComponents {
             double lrt = Math.max(0, fit0.remlCriterion() - fit.remlCriterion());
             if (testResamples > 0) {
                 Random nullRandom = RemlFit.random(seed ^ 0x5DEECE66DL);
+                double[][] nullData = new double[testResamples][];
+                for (int b = 0; b < testResamples; b++) {
+                    nullData[b] = reduced.simulate(fit0, nullRandom);
+                }
+                double[] fullCriterion = new double[testResamples];
+                double[] nullCriterion = new double[testResamples];
+                double[] altStart = withCentre(reducedTheta(fit0.theta(), centreIndex));
+                inParallel(testResamples, b -> {
+                    double[] ys = nullData[b];
+                    fullCriterion[b] = finiteMin(model.fit(ys, fit.theta()).remlCriterion(),
+                            model.fit(ys, altStart).remlCriterion());
+                    nullCriterion[b] = reduced.fit(ys, fit0.theta()).remlCriterion();
+                });
                 int exceed = 0;
                 int used = 0;
                 for (int b = 0; b < testResamples; b++) {
-                    double[] ys = reduced.simulate(fit0, nullRandom);
-                    double full = finiteMin(model.fit(ys, fit.theta()).remlCriterion(),
-                            model.fit(ys, withCentre(reducedTheta(fit0.theta(), centreIndex))).remlCriterion());
-                    double stat = Math.max(0, reduced.fit(ys, fit0.theta()).remlCriterion() - full);
+                    double full = fullCriterion[b];
+                    double stat = Math.max(0, nullCriterion[b] - full);
                     if (Double.isNaN(stat) || Double.isNaN(full)) {
                         continue; // both full-model refits or the null refit failed: left out
                     }
@@ -204,6 +222,17 @@ public final class VarianceComponents {
             notes.add("the centre term is the only grouping factor; no test of sigma2_centre = 0");
         }
         return new Result(components, intervalMethod, test, observations, notes);
+    }
+
+    /**
+     * Runs {@code body} for 0 ≤ b &lt; count as a parallel stream. Every resample's data were
+     * simulated beforehand from one seeded stream and each refit writes only its own slot, so the
+     * result does not depend on the scheduling. Called from a worker of a {@link
+     * java.util.concurrent.ForkJoinPool} (as the study-level analysis does), the work stays in that
+     * pool and its parallelism bounds the threads; from any other thread it runs in the common pool.
+     */
+    private static void inParallel(int count, java.util.function.IntConsumer body) {
+        IntStream.range(0, count).parallel().forEach(body);
     }
 
     /** The smaller finite value (NaN stands for a failed fit); NaN when both are NaN. */
