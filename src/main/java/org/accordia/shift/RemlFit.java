@@ -36,6 +36,12 @@ import org.apache.commons.math3.random.Well19937c;
  * <p>Optimisation over θ in the box [0, 10³]^K: Brent's method on θ/(1 + θ) for one factor, BOBYQA
  * (Powell 2009) from three starts (θ = 1, 0.25, 4) for several; afterwards each small θ_k is set to
  * exactly 0 when that does not increase the criterion, so boundary estimates are exact zeros.
+ * Refits from a given start (the parametric bootstraps, hundreds of fits per analysis) use
+ * Nelder–Mead (Nelder &amp; Mead 1965; commons-math {@code SimplexOptimizer}) on θ = u² instead of
+ * BOBYQA: commons-math's BOBYQA spends about 85 % of a refit in its own bookkeeping (matrix objects
+ * per step) against 10 µs per criterion evaluation, so the simplex, with more but far cheaper steps,
+ * refits about 2.5 times faster; its optimum is checked against the multi-start BOBYQA fit in the
+ * tests ({@code RemlRefitTest}).
  *
  * <p>Robustness: BOBYQA can stop with an exception ("trust region step has failed to reduce Q")
  * on some data sets (seen on a simulated null study whose optimum lies on the boundary). Such a
@@ -214,6 +220,19 @@ public final class RemlFit {
             Arrays.fill(upper, THETA_MAX);
             for (double[] start : starts) {
                 double[] point;
+                if (startTheta != null) {
+                    point = refitSimplex(objective, start);
+                    if (point != null) {
+                        double value = objective.applyAsDouble(point);
+                        if (value < bestValue) {
+                            bestValue = value;
+                            best = point.clone();
+                        }
+                        continue;
+                    }
+                    notes.add(String.format(java.util.Locale.ROOT, "Nelder-Mead refit from start theta = %s found no "
+                            + "finite criterion; the fallback searches were used", Arrays.toString(start)));
+                }
                 try {
                     // refits from a given start (bootstrap) stop earlier: 1e-7 in θ is far below resampling noise
                     BOBYQAOptimizer bobyqa = new BOBYQAOptimizer(2 * factors + 1, startTheta == null ? 0.2 : 0.1,
@@ -305,6 +324,33 @@ public final class RemlFit {
             best = polished;
         }
         return best;
+    }
+
+    /** Relative and absolute change of the criterion below which a refit's simplex has converged. */
+    static final double REFIT_RELATIVE_TOLERANCE = 1e-11;
+    static final double REFIT_ABSOLUTE_TOLERANCE = 1e-14;
+    /** Initial simplex step in u = √θ for refits (the start is the original fit's θ, close to the optimum). */
+    static final double REFIT_STEP = 0.05;
+
+    /**
+     * A bootstrap refit: Nelder–Mead on u with θ = min(u², 10³) from √start, step {@link #REFIT_STEP};
+     * null when it fails or ends on a non-finite criterion (the caller then uses the fallbacks).
+     */
+    private double[] refitSimplex(java.util.function.ToDoubleFunction<double[]> objective, double[] start) {
+        double[] u0 = new double[factors];
+        for (int k = 0; k < factors; k++) {
+            u0[k] = Math.sqrt(start[k]);
+        }
+        try {
+            PointValuePair opt = new SimplexOptimizer(REFIT_RELATIVE_TOLERANCE, REFIT_ABSOLUTE_TOLERANCE)
+                    .optimize(new MaxEval(20_000), GoalType.MINIMIZE, new InitialGuess(u0),
+                            new NelderMeadSimplex(factors, REFIT_STEP),
+                            new ObjectiveFunction(u -> safe(objective, fromU(u))));
+            double[] t = fromU(opt.getPoint());
+            return Double.isFinite(safe(objective, t)) ? t : null;
+        } catch (IllegalStateException | ArithmeticException e) {
+            return null;
+        }
     }
 
     private static double[] fromU(double[] u) {
