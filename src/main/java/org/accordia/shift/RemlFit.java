@@ -70,6 +70,7 @@ public final class RemlFit {
     private final double[][] ztz;
     private final double[][] ztx;
     private final double[][] xtx;
+    private final int[] rowStart;    // per row of A: its first structurally non-zero column (envelope)
 
     /**
      * @param names   one name per grouping factor
@@ -148,6 +149,7 @@ public final class RemlFit {
                 }
             }
         }
+        rowStart = envelope();
     }
 
     public List<String> names() {
@@ -492,12 +494,35 @@ public final class RemlFit {
         return lambda;
     }
 
+    /**
+     * Envelope of A: per row, the first column whose entry can be non-zero (Z'Z, Z'X, X'X non-zero
+     * there, or the diagonal). The Cholesky factor keeps the envelope of A (no fill-in before a row's
+     * first non-zero; George &amp; Liu 1981, ch. 4), so products left of it are exact zeros and are
+     * skipped. A factor's own block of Z'Z is diagonal (each observation has one level), so the rows
+     * of the first factor cost nothing; the skipped terms are all zero, so the factor is the same.
+     */
+    private int[] envelope() {
+        int m = q + p;
+        int[] start = new int[m];
+        for (int i = 0; i < m; i++) {
+            start[i] = i;
+            for (int j = 0; j < i; j++) {
+                boolean nonZero = i < q ? ztz[i][j] != 0 : j < q ? ztx[j][i - q] != 0 : xtx[i - q][j - q] != 0;
+                if (nonZero) {
+                    start[i] = j;
+                    break;
+                }
+            }
+        }
+        return start;
+    }
+
     /** Lower Cholesky factor of A(θ), in place; returns null when A is not positive definite. */
     private double[][] factor(double[] lambda) {
         int m = q + p;
         double[][] a = new double[m][m];
         for (int i = 0; i < q; i++) {
-            for (int j = 0; j <= i; j++) {
+            for (int j = rowStart[i]; j <= i; j++) {
                 a[i][j] = lambda[i] * lambda[j] * ztz[i][j];
             }
             a[i][i] += 1;
@@ -512,8 +537,9 @@ public final class RemlFit {
         }
         for (int j = 0; j < m; j++) {
             double[] rj = a[j];
+            int sj = rowStart[j];
             double d = rj[j];
-            for (int k = 0; k < j; k++) {
+            for (int k = sj; k < j; k++) {
                 d -= rj[k] * rj[k];
             }
             if (!(d > 0)) {
@@ -522,9 +548,12 @@ public final class RemlFit {
             d = Math.sqrt(d);
             rj[j] = d;
             for (int i = j + 1; i < m; i++) {
+                if (rowStart[i] > j) {
+                    continue; // left of row i's envelope: stays 0
+                }
                 double[] ri = a[i];
                 double s = ri[j];
-                for (int k = 0; k < j; k++) {
+                for (int k = Math.max(sj, rowStart[i]); k < j; k++) {
                     s -= ri[k] * rj[k];
                 }
                 ri[j] = s / d;
@@ -542,13 +571,14 @@ public final class RemlFit {
         return c;
     }
 
-    private static double[] forward(double[][] l, double[] c) {
+    /** L⁻¹c by forward substitution, within the envelope of L. */
+    private double[] forward(double[][] l, double[] c) {
         int m = c.length;
         double[] w = new double[m];
         for (int i = 0; i < m; i++) {
             double s = c[i];
             double[] li = l[i];
-            for (int k = 0; k < i; k++) {
+            for (int k = rowStart[i]; k < i; k++) {
                 s -= li[k] * w[k];
             }
             w[i] = s / li[i];
