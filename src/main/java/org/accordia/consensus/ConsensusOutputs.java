@@ -87,13 +87,26 @@ public final class ConsensusOutputs {
         }
         SignedSurface.BoxMask bm = SignedSurface.consensusMask(masks, structureLabels, staple, keep, unionBox);
         Geometry g = masks.get(0).geometry();
-        int[] out = new int[masks.get(0).voxelCount()];
-        for (int i = 0; i < bm.mask().length; i++) {
-            if (bm.mask()[i]) {
-                out[bm.box().gridIndex(i, g.nx(), g.ny())] = outputLabel;
+        boolean[] inside = bm.mask();
+        Box box = bm.box();
+        if (outputLabel > 255) {
+            int[] out = new int[masks.get(0).voxelCount()];
+            for (int i = 0; i < inside.length; i++) {
+                if (inside[i]) {
+                    out[box.gridIndex(i, g.nx(), g.ny())] = outputLabel;
+                }
+            }
+            return LabelVolume.ofInts(g, out);
+        }
+        // one byte per voxel straight away: no int grid to allocate and compact
+        byte[] out = new byte[masks.get(0).voxelCount()];
+        byte value = (byte) outputLabel;
+        for (int i = 0; i < inside.length; i++) {
+            if (inside[i]) {
+                out[box.gridIndex(i, g.nx(), g.ny())] = value;
             }
         }
-        return LabelVolume.ofInts(g, out);
+        return LabelVolume.ofBytes(g, out);
     }
 
     /**
@@ -116,7 +129,12 @@ public final class ConsensusOutputs {
         }
         int b = h.bitsPerReader();
         int n = masks.get(0).voxelCount();
-        int[] out = new int[n];
+        int maxValue = 0;
+        for (int v : labelPerTuple) {
+            maxValue = Math.max(maxValue, v);
+        }
+        // bytes straight away when every value fits (the usual case): no int grid to allocate and compact
+        Output out = maxValue <= 255 ? new Output(null, new byte[n]) : new Output(new int[n], null);
         Box box = Patterns.nonzeroByteBox(masks);
         if (box != null) {
             // every reader holds 0 outside the box: tuple key 0 there
@@ -126,31 +144,64 @@ public final class ConsensusOutputs {
                     throw new IllegalArgumentException("volumes do not match the histogram");
                 }
                 if (labelPerTuple[t] != 0) {
-                    Arrays.fill(out, labelPerTuple[t]);
+                    out.fill(labelPerTuple[t]);
                 }
             }
             int[] d = masks.get(0).geometry().dims();
             long[] key = new long[Math.max(1, box.nx())];
+            int[] values = new int[key.length];
             long[] last = {-1L, 0L};
             for (int z = box.z0(); z < box.z1(); z++) {
                 for (int y = box.y0(); y < box.y1(); y++) {
-                    labelRun(masks, index, b, h, labelPerTuple, box.x0() + d[0] * (y + d[1] * z), box.nx(), key, out,
-                        last);
+                    int start = box.x0() + d[0] * (y + d[1] * z);
+                    labelRun(masks, index, b, h, labelPerTuple, start, box.nx(), key, values, last);
+                    out.put(start, values, box.nx());
                 }
             }
-            return LabelVolume.ofInts(masks.get(0).geometry(), out);
+            return out.volume(masks.get(0).geometry());
         }
         long[] key = new long[4096];
+        int[] values = new int[key.length];
         long[] last = {-1L, 0L};
         for (int start = 0; start < n; start += key.length) {
-            labelRun(masks, index, b, h, labelPerTuple, start, Math.min(key.length, n - start), key, out, last);
+            int len = Math.min(key.length, n - start);
+            labelRun(masks, index, b, h, labelPerTuple, start, len, key, values, last);
+            out.put(start, values, len);
         }
-        return LabelVolume.ofInts(masks.get(0).geometry(), out);
+        return out.volume(masks.get(0).geometry());
     }
 
-    /** Consensus labels of the voxels start..start+len-1; {@code last} = {last key, its value}. */
+    /** A label grid being filled: ints, or bytes when every value fits in 0..255. */
+    private record Output(int[] ints, byte[] bytes) {
+        void fill(int value) {
+            if (bytes != null) {
+                Arrays.fill(bytes, (byte) value);
+            } else {
+                Arrays.fill(ints, value);
+            }
+        }
+
+        void put(int start, int[] values, int len) {
+            if (bytes != null) {
+                for (int i = 0; i < len; i++) {
+                    bytes[start + i] = (byte) values[i];
+                }
+            } else {
+                System.arraycopy(values, 0, ints, start, len);
+            }
+        }
+
+        LabelVolume volume(Geometry g) {
+            return bytes != null ? LabelVolume.ofBytes(g, bytes) : LabelVolume.ofInts(g, ints);
+        }
+    }
+
+    /**
+     * Consensus labels of the voxels start..start+len-1 into {@code values[0..len)};
+     * {@code last} = {last key, its value}.
+     */
     private static void labelRun(List<LabelVolume> masks, int[] index, int b, LabelTupleHistogram h,
-            int[] labelPerTuple, int start, int len, long[] key, int[] out, long[] last) {
+            int[] labelPerTuple, int start, int len, long[] key, int[] values, long[] last) {
         Arrays.fill(key, 0, len, 0L);
         for (int j = 0; j < masks.size(); j++) {
             LabelVolume v = masks.get(j);
@@ -179,7 +230,7 @@ public final class ConsensusOutputs {
                 lastKey = key[i];
                 lastValue = labelPerTuple[t];
             }
-            out[start + i] = lastValue;
+            values[i] = lastValue;
         }
         last[0] = lastKey;
         last[1] = lastValue;

@@ -42,9 +42,14 @@ class ConsensusOutputsTest {
         double[][] o = BinaryStapleTest.perVoxelOracle(d, BinaryStapleTest.meanFraction(d), 1e-10, 10_000);
         float[] map = ConsensusOutputs.probabilityMap(masks, new int[] {2}, res);
         LabelVolume cons = ConsensusOutputs.binaryConsensus(masks, new int[] {2}, res, 0b1111, 5);
+        // an output label beyond a byte takes the int store
+        LabelVolume wide = ConsensusOutputs.binaryConsensus(masks, new int[] {2}, res, 0b1111, 300);
+        org.junit.jupiter.api.Assertions.assertTrue(cons.isCompact());
+        org.junit.jupiter.api.Assertions.assertFalse(wide.isCompact());
         for (int i = 0; i < map.length; i++) {
             assertEquals((float) o[2][i], map[i], 1e-6f);
             assertEquals(o[2][i] >= 0.5 ? 5 : 0, cons.label(i));
+            assertEquals(o[2][i] >= 0.5 ? 300 : 0, wide.label(i));
         }
     }
 

@@ -108,6 +108,13 @@ class LabelTupleBoxTest {
             }
             assertArrayEquals(expectedLabels, gotB);
             assertArrayEquals(expectedLabels, gotI);
+            // values beyond a byte: the int store, same labels
+            int[] widePerTuple = java.util.Arrays.stream(perTuple).map(v -> v + 300).toArray();
+            LabelVolume wide = ConsensusOutputs.labelConsensus(bytes, hb, widePerTuple);
+            org.junit.jupiter.api.Assertions.assertFalse(wide.isCompact());
+            for (int i = 0; i < n; i++) {
+                assertEquals(expectedLabels[i] + 300, wide.label(i));
+            }
         }
     }
 }
