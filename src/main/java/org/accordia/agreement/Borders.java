@@ -56,6 +56,11 @@ public final class Borders {
             return size() == 0;
         }
 
+        /** True when voxel (x, y, z) of the grid lies in the box. */
+        public boolean contains(int x, int y, int z) {
+            return x >= x0 && x < x1 && y >= y0 && y < y1 && z >= z0 && z < z1;
+        }
+
         /** Grows by {@code margin} voxels on every side, clipped to the grid; empty stays empty. */
         public Box grow(int margin, int nx, int ny, int nz) {
             return grow(margin, margin, margin, nx, ny, nz);

@@ -36,27 +36,75 @@ public final class ConsensusOutputs {
      */
     public static float[] probabilityMap(List<LabelVolume> masks, int[] structureLabels, StapleResult staple,
             Box unionBox) {
+        BoxMap m = probabilityInBox(masks, structureLabels, staple, unionBox);
+        int[] d = masks.get(0).geometry().dims();
+        float[] out = new float[masks.get(0).voxelCount()];
+        float[] row = new float[d[0]];
+        for (int z = 0; z < d[2]; z++) {
+            for (int y = 0; y < d[1]; y++) {
+                m.fillRow(y, z, row);
+                System.arraycopy(row, 0, out, d[0] * (y + d[1] * z), d[0]);
+            }
+        }
+        return out;
+    }
+
+    /**
+     * A float map that is {@code outside} everywhere except on {@code box}, where it holds
+     * {@code values} (x fastest within the box). Lets a writer stream a full-grid map row by row
+     * without a full-grid array.
+     *
+     * @param nx the grid's x size (the row length)
+     */
+    public record BoxMap(int nx, Box box, float[] values, float outside) {
+        public BoxMap {
+            if (values.length != box.size()) {
+                throw new IllegalArgumentException("one value per voxel of the box expected");
+            }
+        }
+
+        /** Row y of slice z of the full grid into {@code row} (length nx). */
+        public void fillRow(int y, int z, float[] row) {
+            Arrays.fill(row, 0, nx, outside);
+            if (z >= box.z0() && z < box.z1() && y >= box.y0() && y < box.y1()) {
+                int from = box.nx() * ((y - box.y0()) + box.ny() * (z - box.z0()));
+                System.arraycopy(values, from, row, box.x0(), box.nx());
+            }
+        }
+
+        /** The value at (x, y, z) of the full grid. */
+        public float at(int x, int y, int z) {
+            return box.contains(x, y, z) ? values[(x - box.x0()) + box.nx() * ((y - box.y0()) + box.ny() * (z - box.z0()))]
+                : outside;
+        }
+    }
+
+    /**
+     * {@link #probabilityMap(List, int[], StapleResult, Box)} kept on the readers' union box: W of
+     * pattern 0 outside it (every reader's pattern there is 0), each voxel's W inside.
+     */
+    public static BoxMap probabilityInBox(List<LabelVolume> masks, int[] structureLabels, StapleResult staple,
+            Box unionBox) {
         Patterns.checkSameGrid(masks);
         if (staple.readers() != masks.size()) {
             throw new IllegalArgumentException("one mask per reader of the STAPLE result expected");
         }
         boolean[] lut = Patterns.lut(structureLabels);
-        Geometry g = masks.get(0).geometry();
-        float[] out = new float[masks.get(0).voxelCount()];
-        Arrays.fill(out, (float) staple.weightOfPattern(0));
+        int nx = masks.get(0).geometry().nx();
+        float outside = (float) staple.weightOfPattern(0);
         Box box = unionBox != null ? unionBox : Patterns.unionBox(masks, lut);
         if (box.isEmpty()) {
-            return out;
+            return new BoxMap(nx, Box.EMPTY, new float[0], outside);
         }
         long[] pat = Patterns.patternsInBox(masks, lut, box);
         float[] dense = masks.size() <= 16 ? denseWeights(staple, masks.size()) : null;
         java.util.Map<Long, Float> memo = new java.util.HashMap<>();
+        float[] values = new float[pat.length];
         for (int i = 0; i < pat.length; i++) {
-            float w = dense != null ? dense[(int) pat[i]]
+            values[i] = dense != null ? dense[(int) pat[i]]
                 : memo.computeIfAbsent(pat[i], p -> (float) staple.weightOfPattern(p));
-            out[box.gridIndex(i, g.nx(), g.ny())] = w;
         }
-        return out;
+        return new BoxMap(nx, box, values, outside);
     }
 
     private static float[] denseWeights(StapleResult s, int readers) {

@@ -125,25 +125,58 @@ public final class NiftiWriter {
             throw new IllegalArgumentException("values has " + values.length + " entries, geometry "
                 + g.dimsText() + " needs " + g.voxelCount());
         }
-        encode(os, compression, g, DT_FLOAT32, 32, 0, 1, o -> writeFloats(o, values));
+        encode(os, compression, g, DT_FLOAT32, 32, 0, 1, o -> writeFloats(o, g, values));
+    }
+
+    /** Supplies a float volume one x-row at a time, so that it can be written without a full-grid array. */
+    @FunctionalInterface
+    public interface FloatRows {
+        /** Fills {@code row} (length nx) with row y of slice z, x ascending. */
+        void fill(int y, int z, float[] row);
+    }
+
+    /**
+     * As {@link #writeProbability(OutputStream, Geometry, float[], Compression)} with the values
+     * supplied row by row (the same bytes as the full array holding those rows).
+     */
+    public static void writeProbability(OutputStream os, Geometry g, FloatRows rows, Compression compression)
+            throws IOException {
+        encode(os, compression, g, DT_FLOAT32, 32, 0, 1, o -> writeRows(o, g, rows));
     }
 
     /** Writes an intensity image as float32. */
     public static void writeImage(Path out, ImageVolume v) throws IOException {
         checkName(out);
-        writeAtomically(out, os -> encode(os, compressionOf(out), v.geometry(), DT_FLOAT32, 32, 0, 0, o -> writeFloats(o, v.data())));
+        writeAtomically(out, os -> encode(os, compressionOf(out), v.geometry(), DT_FLOAT32, 32, 0, 0,
+            o -> writeFloats(o, v.geometry(), v.data())));
     }
 
-    private static void writeFloats(OutputStream os, float[] values) throws IOException {
-        ByteBuffer bb = ByteBuffer.allocate(1 << 16).order(ByteOrder.LITTLE_ENDIAN);
-        for (float f : values) {
-            if (!bb.hasRemaining()) {
-                os.write(bb.array(), 0, bb.position());
-                bb.clear();
+    private static void writeFloats(OutputStream os, Geometry g, float[] values) throws IOException {
+        int nx = g.nx();
+        int ny = g.ny();
+        writeRows(os, g, (y, z, row) -> System.arraycopy(values, nx * (y + ny * z), row, 0, nx));
+    }
+
+    /** Little-endian float32 rows, gathered into blocks of about 64 KiB per write (bulk conversion). */
+    private static void writeRows(OutputStream os, Geometry g, FloatRows rows) throws IOException {
+        int nx = g.nx();
+        int rowsPerBlock = Math.max(1, (1 << 14) / nx);
+        ByteBuffer bb = ByteBuffer.allocate(4 * nx * rowsPerBlock).order(ByteOrder.LITTLE_ENDIAN);
+        java.nio.FloatBuffer fb = bb.asFloatBuffer();
+        float[] row = new float[nx];
+        int inBlock = 0;
+        for (int z = 0; z < g.nz(); z++) {
+            for (int y = 0; y < g.ny(); y++) {
+                rows.fill(y, z, row);
+                fb.put(row);
+                if (++inBlock == rowsPerBlock) {
+                    os.write(bb.array(), 0, 4 * nx * inBlock);
+                    fb.clear();
+                    inBlock = 0;
+                }
             }
-            bb.putFloat(f);
         }
-        os.write(bb.array(), 0, bb.position());
+        os.write(bb.array(), 0, 4 * nx * inBlock);
     }
 
     private static void checkName(Path out) {

@@ -108,9 +108,9 @@ public final class ConsensusFiles implements CaseSink {
             if (folder != null) {
                 String stem = dir + "/" + OutputFolder.safeFileName(st.name());
                 Box union = sc.agreement().unionBox();
-                float[] w = ConsensusOutputs.probabilityMap(masks, labels, refs.all(), union);
+                ConsensusOutputs.BoxMap w = ConsensusOutputs.probabilityInBox(masks, labels, refs.all(), union);
                 folder.writeAtomically(stem + "_probability.nii.gz",
-                    out -> NiftiWriter.writeProbability(out, lc.geometry(), w, GZIP));
+                    out -> NiftiWriter.writeProbability(out, lc.geometry(), w::fillRow, GZIP));
                 LabelVolume bin = ConsensusOutputs.binaryConsensus(masks, labels, refs.all(),
                     refs.keepMask("all", 0), 1, union);
                 folder.writeAtomically(stem + "_consensus.nii.gz", out -> NiftiWriter.writeLabels(out, bin, GZIP));
@@ -175,11 +175,13 @@ public final class ConsensusFiles implements CaseSink {
             slice.z(), Math.min(g.nx(), union.x1() + PICTURE_MARGIN_VOXELS),
             Math.min(g.ny(), union.y1() + PICTURE_MARGIN_VOXELS), slice.z() + 1);
         List<boolean[]> masks = masksInBox(lc.masks(), sc.structure(), crop);
-        float[] w = ConsensusOutputs.probabilityMap(lc.masks(), sc.structure().labelArray(),
+        ConsensusOutputs.BoxMap w = ConsensusOutputs.probabilityInBox(lc.masks(), sc.structure().labelArray(),
             work.references().get(pick).all(), union);
         float[] prob = new float[crop.size()];
-        for (int i = 0; i < prob.length; i++) {
-            prob[i] = w[crop.gridIndex(i, g.nx(), g.ny())];
+        for (int i = 0, y = crop.y0(); y < crop.y1(); y++) {
+            for (int x = crop.x0(); x < crop.x1(); x++) {
+                prob[i++] = w.at(x, y, crop.z0());
+            }
         }
         return new Picture(rec.caseId(), sc.structure().name(), rec.disagreementScore(), slice.z(),
             slice.disagreementVoxels(), crop, g, lc.readers(), masks, prob);

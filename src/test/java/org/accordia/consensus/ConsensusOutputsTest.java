@@ -46,8 +46,10 @@ class ConsensusOutputsTest {
         LabelVolume wide = ConsensusOutputs.binaryConsensus(masks, new int[] {2}, res, 0b1111, 300);
         org.junit.jupiter.api.Assertions.assertTrue(cons.isCompact());
         org.junit.jupiter.api.Assertions.assertFalse(wide.isCompact());
+        ConsensusOutputs.BoxMap inBox = ConsensusOutputs.probabilityInBox(masks, new int[] {2}, res, null);
         for (int i = 0; i < map.length; i++) {
             assertEquals((float) o[2][i], map[i], 1e-6f);
+            assertEquals(map[i], inBox.at(i % nx, i / nx % ny, i / (nx * ny)));
             assertEquals(o[2][i] >= 0.5 ? 5 : 0, cons.label(i));
             assertEquals(o[2][i] >= 0.5 ? 300 : 0, wide.label(i));
         }

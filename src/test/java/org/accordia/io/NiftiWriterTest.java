@@ -150,6 +150,11 @@ class NiftiWriterTest {
         java.io.ByteArrayOutputStream again = new java.io.ByteArrayOutputStream();
         NiftiWriter.writeProbability(again, g, p, NiftiWriter.Compression.FAST);
         assertArrayEquals(fastP.toByteArray(), again.toByteArray());
+        // the same map supplied row by row: the same bytes
+        java.io.ByteArrayOutputStream byRows = new java.io.ByteArrayOutputStream();
+        NiftiWriter.writeProbability(byRows, g,
+            (y, z, row) -> System.arraycopy(p, g.nx() * (y + g.ny() * z), row, 0, g.nx()), NiftiWriter.Compression.FAST);
+        assertArrayEquals(fastP.toByteArray(), byRows.toByteArray());
         java.io.ByteArrayOutputStream fastL = new java.io.ByteArrayOutputStream();
         java.io.ByteArrayOutputStream rawL = new java.io.ByteArrayOutputStream();
         NiftiWriter.writeLabels(fastL, v, NiftiWriter.Compression.FAST);
