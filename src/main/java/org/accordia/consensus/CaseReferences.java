@@ -168,10 +168,28 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
             vol * voxelVolumeMl, ratio, Double.NaN, kind);
     }
 
+    /** A consensus mask compared by content. */
+    private record MaskKey(boolean[] mask, int hash) {
+        MaskKey(boolean[] mask) {
+            this(mask, java.util.Arrays.hashCode(mask));
+        }
+
+        @Override
+        public boolean equals(Object o) {
+            return o instanceof MaskKey k && k.hash == hash && java.util.Arrays.equals(k.mask, mask);
+        }
+
+        @Override
+        public int hashCode() {
+            return hash;
+        }
+    }
+
     /**
      * {@link #rows()} with the mean signed surface distance of each reader to each reference
      * consensus filled in (see {@link SignedSurface}); one voxel pass over the union box of the
-     * readers' masks grown by one voxel, one distance transform per reference consensus.
+     * readers' masks grown by one voxel, one distance transform per distinct consensus mask (references
+     * whose masks coincide share it).
      *
      * @param masks the readers' label volumes, in histogram bit order, on one grid
      * @param structureLabels the label values that make up this structure
@@ -214,14 +232,21 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
             }
         }
         SignedSurface.Prepared prep = SignedSurface.prepare(masks, structureLabels, fullGrid, unionBox);
-        double[] mm = new double[base.size()];
+        // reader sets whose consensus masks are identical share one border and one distance
+        // transform (about a quarter of the 13 per structure in the benchmark study): rows grouped by mask
+        java.util.LinkedHashMap<MaskKey, List<Integer>> byMask = new java.util.LinkedHashMap<>();
         for (var e : byKeep.entrySet()) {
+            MaskKey key = new MaskKey(prep.consensus(stapleOf.get(e.getKey()), e.getKey()));
+            byMask.computeIfAbsent(key, x -> new ArrayList<>()).addAll(e.getValue());
+        }
+        double[] mm = new double[base.size()];
+        for (var e : byMask.entrySet()) {
             List<Integer> rowsOf = e.getValue();
             int[] idx = new int[rowsOf.size()];
             for (int t = 0; t < idx.length; t++) {
                 idx[t] = readerOfRow.get(rowsOf.get(t));
             }
-            double[] v = prep.meanSignedMm(prep.consensus(stapleOf.get(e.getKey()), e.getKey()), idx);
+            double[] v = prep.meanSignedMm(e.getKey().mask(), idx);
             for (int t = 0; t < idx.length; t++) {
                 mm[rowsOf.get(t)] = v[t];
             }
