@@ -97,7 +97,7 @@ public final class AnalyzeBench {
         StudyResult r = StudyAnalysis.run(source, protocol, AnalysisOptions.defaults().withThreads(threads), consensus,
             () -> { });
         AnalysisReport.write(folder, r, consensus.pictures(), source,
-            new AnalysisReport.RunInfo("benchmark", checksums, "benchmark protocol (demo structures)"));
+            new AnalysisReport.RunInfo("benchmark", checksums, "benchmark protocol (demo structures)"), threads);
         return r;
     }
 

@@ -166,7 +166,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 }
             }
             AnalysisReport.write(folder, result, consensus.pictures(), source,
-                new AnalysisReport.RunInfo(VersionProvider.version(), checksums, protocolSource));
+                new AnalysisReport.RunInfo(VersionProvider.version(), checksums, protocolSource), threads);
         } catch (Exception | Error e) {
             // stop at the first bad input and leave nothing of this run behind (no half set of outputs)
             folder.discardThisRun();

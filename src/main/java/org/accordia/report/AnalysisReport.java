@@ -62,6 +62,55 @@ public final class AnalysisReport {
     /** Writes the tables, summary.json and report.html. */
     public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source,
             RunInfo info) throws IOException, InputException {
+        write(out, r, pictures, source, info, 1);
+    }
+
+    /**
+     * As {@link #write(OutputFolder, StudyResult, List, CaseSource, RunInfo)}; with {@code threads}
+     * ≥ 2 the HTML report (charts, pictures) is made on a second thread while this one writes the
+     * tables and the summary. The files are the same either way.
+     */
+    public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source,
+            RunInfo info, int threads) throws IOException, InputException {
+        if (threads < 2) {
+            writeTables(out, r, info);
+            out.writeString(OutputFolder.REPORT_HTML, html(r, pictures, source, info));
+            return;
+        }
+        java.util.concurrent.ExecutorService helper = java.util.concurrent.Executors.newSingleThreadExecutor(t -> {
+            Thread th = new Thread(t, "accordia-report");
+            th.setDaemon(true);
+            return th;
+        });
+        try {
+            java.util.concurrent.Future<String> html = helper.submit(() -> html(r, pictures, source, info));
+            writeTables(out, r, info);
+            String page;
+            try {
+                page = html.get();
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                throw new IllegalStateException("report interrupted", e);
+            } catch (java.util.concurrent.ExecutionException e) {
+                Throwable c = e.getCause();
+                if (c instanceof InputException ie) {
+                    throw ie;
+                }
+                if (c instanceof RuntimeException re) {
+                    throw re;
+                }
+                if (c instanceof Error err) {
+                    throw err;
+                }
+                throw new IllegalStateException(c);
+            }
+            out.writeString(OutputFolder.REPORT_HTML, page);
+        } finally {
+            helper.shutdownNow();
+        }
+    }
+
+    private static void writeTables(OutputFolder out, StudyResult r, RunInfo info) throws IOException {
         out.writeAtomically("pairs.csv", Tables.pairs(r)::write);
         out.writeAtomically("readers.csv", Tables.readers(r)::write);
         out.writeAtomically("centres.csv", Tables.centres(r)::write);
@@ -69,8 +118,6 @@ public final class AnalysisReport {
         out.writeAtomically("reader_summary.csv", Tables.readerSummary(r)::write);
         out.writeAtomically("events.csv", Tables.events(r)::write);
         out.writeAtomically(OutputFolder.SUMMARY_JSON, o -> JsonOutput.write(SummaryJson.of(r, info.version(), info.inputs()), o));
-        String html = html(r, pictures, source, info);
-        out.writeString(OutputFolder.REPORT_HTML, html);
     }
 
     /** The HTML report. */

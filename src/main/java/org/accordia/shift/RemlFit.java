@@ -497,7 +497,8 @@ public final class RemlFit {
     /**
      * Envelope of A: per row, the first column whose entry can be non-zero (Z'Z, Z'X, X'X non-zero
      * there, or the diagonal). The Cholesky factor keeps the envelope of A (no fill-in before a row's
-     * first non-zero; George &amp; Liu 1981, ch. 4), so products left of it are exact zeros and are
+     * first non-zero; George &amp; Liu 1981, Computer Solution of Large Sparse Positive Definite Systems,
+     * ch. 4, from memory), so products left of it are exact zeros and are
      * skipped. A factor's own block of Z'Z is diagonal (each observation has one level), so the rows
      * of the first factor cost nothing; the skipped terms are all zero, so the factor is the same.
      */
