@@ -209,22 +209,7 @@ public final class StudyAnalysis {
         } finally {
             pool.shutdownNow();
         }
-        Throwable t = failure.get();
-        if (t instanceof InputException ie) {
-            throw ie;
-        }
-        if (t instanceof IOException io) {
-            throw io;
-        }
-        if (t instanceof RuntimeException re) {
-            throw re;
-        }
-        if (t instanceof Error err) {
-            throw err;
-        }
-        if (t != null) {
-            throw new IllegalStateException(t);
-        }
+        Failures.rethrow(failure.get());
     }
 
     /**
@@ -242,13 +227,7 @@ public final class StudyAnalysis {
             Thread.currentThread().interrupt();
             throw new IllegalStateException("analysis interrupted", e);
         } catch (ExecutionException e) {
-            if (e.getCause() instanceof RuntimeException re) {
-                throw re;
-            }
-            if (e.getCause() instanceof Error err) {
-                throw err;
-            }
-            throw new IllegalStateException(e.getCause());
+            Failures.rethrowUnchecked(e.getCause());
         } finally {
             pool.shutdownNow();
         }

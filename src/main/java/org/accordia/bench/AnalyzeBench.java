@@ -33,7 +33,8 @@ import org.accordia.study.Study;
  * and {@link ConsensusFiles} writing each case's consensus files, then {@link AnalysisReport#write}
  * (report, summary, tables), all into a fresh temporary folder. Read-only = every mask of every case read through
  * {@link Volumes#readLabels} with the same number of threads (cases in parallel). Rounds alternate
- * the two (read first) after {@code warmups} discarded rounds; medians are reported.
+ * the two (read first) after {@code warmups} discarded rounds, each timed part after a full
+ * collection ({@code System.gc()}); medians are reported.
  */
 public final class AnalyzeBench {
 
@@ -60,6 +61,8 @@ public final class AnalyzeBench {
         int masks = study.masks().size();
         for (int round = 0; round < warmups + rounds; round++) {
             int k = round - warmups;
+            // each timed part starts from a collected heap: neither pays for the other's garbage
+            System.gc();
             long t0 = System.nanoTime();
             long voxels = readAll(study, threads);
             long t1 = System.nanoTime();
@@ -68,6 +71,7 @@ public final class AnalyzeBench {
             }
             Path out = Files.createTempDirectory("accordia-bench-analyze");
             try {
+                System.gc();
                 long t2 = System.nanoTime();
                 analyzeOnce(study, protocol, threads, out);
                 long t3 = System.nanoTime();

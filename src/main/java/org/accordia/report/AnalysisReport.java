@@ -85,24 +85,14 @@ public final class AnalysisReport {
         try {
             java.util.concurrent.Future<String> html = helper.submit(() -> html(r, pictures, source, info));
             writeTables(out, r, info);
-            String page;
+            String page = null;
             try {
                 page = html.get();
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
                 throw new IllegalStateException("report interrupted", e);
             } catch (java.util.concurrent.ExecutionException e) {
-                Throwable c = e.getCause();
-                if (c instanceof InputException ie) {
-                    throw ie;
-                }
-                if (c instanceof RuntimeException re) {
-                    throw re;
-                }
-                if (c instanceof Error err) {
-                    throw err;
-                }
-                throw new IllegalStateException(c);
+                org.accordia.analysis.Failures.rethrow(e.getCause());
             }
             out.writeString(OutputFolder.REPORT_HTML, page);
         } finally {
