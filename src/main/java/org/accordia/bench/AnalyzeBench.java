@@ -40,9 +40,20 @@ public final class AnalyzeBench {
 
     /** Medians in nanoseconds. */
     public record Result(int cases, int masks, double analyzeNs, double readNs, int rounds, int warmups, int threads,
-                         String outputs) {
+                         String outputs, long[] analyzePerRoundNs, long[] readPerRoundNs) {
         public double ratio() {
             return analyzeNs / readNs;
+        }
+
+        /** Each measured round's read and analyze times and their ratio, in words. */
+        public String perRound() {
+            StringBuilder sb = new StringBuilder();
+            for (int k = 0; k < analyzePerRoundNs.length; k++) {
+                sb.append(String.format(java.util.Locale.ROOT, "%sread %.1f s, analyze %.1f s (%.2fx)",
+                    k == 0 ? "" : "; ", readPerRoundNs[k] / 1e9, analyzePerRoundNs[k] / 1e9,
+                    (double) analyzePerRoundNs[k] / readPerRoundNs[k]));
+            }
+            return sb.toString();
         }
     }
 
@@ -84,7 +95,7 @@ public final class AnalyzeBench {
             }
         }
         return new Result(study.cases().size(), masks, Medians.of(analyze), Medians.of(read), rounds, warmups, threads,
-            OUTPUTS);
+            OUTPUTS, analyze, read);
     }
 
     /**

@@ -148,11 +148,12 @@ public final class CaseBench {
                     for (int s = 0; consensus && s < structures.size(); s++) {
                         CaseReferences r = references.get(s);
                         int[] labels = structures.get(s).labelArray();
-                        check += r.rowsWithSurfaces(masks, labels).size();
-                        float[] map = ConsensusOutputs.probabilityMap(masks, labels, r.all());
-                        check += map.length;
+                        // as the analysis does it: the agreement's union box, the map kept on its box
+                        var union = agreements.get(s).unionBox();
+                        check += r.rowsWithSurfaces(masks, labels, union).size();
+                        check += ConsensusOutputs.probabilityInBox(masks, labels, r.all(), union).values().length;
                         LabelVolume cons = ConsensusOutputs.binaryConsensus(masks, labels, r.all(),
-                            r.keepMask(org.accordia.consensus.ReaderPerformance.REFERENCE_ALL, 0), 1);
+                            r.keepMask(org.accordia.consensus.ReaderPerformance.REFERENCE_ALL, 0), 1, union);
                         check += cons.voxelCount();
                     }
                     if (consensus) {

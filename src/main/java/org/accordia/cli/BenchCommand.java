@@ -150,8 +150,9 @@ public final class BenchCommand implements Callable<Integer> {
         w.println("  read = every mask of the study read and inflated through the real readers, same threads");
         w.flush();
         AnalyzeBench.Result a = AnalyzeBench.run(study, BenchStudies.protocol(), threads, warmup, analyzeRounds);
-        w.printf(Locale.ROOT, "  %d cases, %d masks: analyze %.1f s, read %.1f s%n", a.cases(), a.masks(),
+        w.printf(Locale.ROOT, "  %d cases, %d masks: analyze %.1f s, read %.1f s (medians)%n", a.cases(), a.masks(),
             a.analyzeNs() / 1e9, a.readNs() / 1e9);
+        w.println("  rounds: " + a.perRound());
         w.printf(Locale.ROOT, "%-66s %7.2fx %9s %s%n", "end-to-end analyze / read", a.ratio(), "<= 3.0x",
             verdict(a.ratio() <= 3.0, threads));
         w.flush();

@@ -166,6 +166,16 @@ public final class ConsensusOutputs {
      * @param masks the readers' volumes the histogram was built from
      */
     public static LabelVolume labelConsensus(List<LabelVolume> masks, LabelTupleHistogram h, int[] labelPerTuple) {
+        return labelConsensus(masks, h, labelPerTuple, null);
+    }
+
+    /**
+     * {@link #labelConsensus(List, LabelTupleHistogram, int[])} with the bounding box of every
+     * non-zero voxel already known (as {@link LabelTupleHistogram#nonzeroBox()} of a histogram built
+     * from these volumes; any box containing them gives the same volume), or null to find it.
+     */
+    public static LabelVolume labelConsensus(List<LabelVolume> masks, LabelTupleHistogram h, int[] labelPerTuple,
+            Box nonzeroBox) {
         Patterns.checkSameGrid(masks);
         if (labelPerTuple.length != h.size() || masks.size() != h.readers()) {
             throw new IllegalArgumentException("one value per tuple and one mask per reader expected");
@@ -183,7 +193,8 @@ public final class ConsensusOutputs {
         }
         // bytes straight away when every value fits (the usual case): no int grid to allocate and compact
         Output out = maxValue <= 255 ? new Output(null, new byte[n]) : new Output(new int[n], null);
-        Box box = Patterns.nonzeroByteBox(masks);
+        boolean allBytes = masks.stream().allMatch(LabelVolume::isCompact);
+        Box box = !allBytes ? null : nonzeroBox != null ? nonzeroBox : Patterns.nonzeroByteBox(masks);
         if (box != null) {
             // every reader holds 0 outside the box: tuple key 0 there
             if (box.size() < n) {
@@ -286,10 +297,18 @@ public final class ConsensusOutputs {
 
     /** The multi-label STAPLE consensus label volume (ties → the result's undecided value). */
     public static LabelVolume labelConsensus(List<LabelVolume> masks, MultiLabelStapleResult staple) {
+        return labelConsensus(masks, staple, null);
+    }
+
+    /**
+     * {@link #labelConsensus(List, MultiLabelStapleResult)} with the non-zero box already known (see
+     * {@link #labelConsensus(List, LabelTupleHistogram, int[], Box)}), or null.
+     */
+    public static LabelVolume labelConsensus(List<LabelVolume> masks, MultiLabelStapleResult staple, Box nonzeroBox) {
         int[] v = new int[staple.histogram().size()];
         for (int i = 0; i < v.length; i++) {
             v[i] = staple.consensusLabel(i);
         }
-        return labelConsensus(masks, staple.histogram(), v);
+        return labelConsensus(masks, staple.histogram(), v, nonzeroBox);
     }
 }

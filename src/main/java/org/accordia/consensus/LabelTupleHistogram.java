@@ -26,6 +26,8 @@ public final class LabelTupleHistogram {
     private final int bits;
     private final long[] keys;
     private final long[] counts;
+    /** Bounding box of the non-zero voxels of the byte volumes it was built from, or null (not part of equality). */
+    private Box nonzeroBox;
 
     /**
      * @param readers number of readers
@@ -142,7 +144,9 @@ public final class LabelTupleHistogram {
             }
         }
         long[][] kc = counter.sorted();
-        return new LabelTupleHistogram(r, labels, kc[0], kc[1]);
+        LabelTupleHistogram h = new LabelTupleHistogram(r, labels, kc[0], kc[1]);
+        h.nonzeroBox = box;
+        return h;
     }
 
     private static void fillKeys(List<LabelVolume> volumes, int[] index, byte[] byteIndex, int b, int start, int len,
@@ -423,6 +427,15 @@ public final class LabelTupleHistogram {
             t += c;
         }
         return t;
+    }
+
+    /**
+     * The bounding box of every non-zero voxel of the volumes this histogram was built from (when
+     * all were byte-stored), so that a later pass over the same volumes need not find it again
+     * ({@link ConsensusOutputs#labelConsensus(List, MultiLabelStapleResult, Box)}); null otherwise.
+     */
+    public Box nonzeroBox() {
+        return nonzeroBox;
     }
 
     @Override

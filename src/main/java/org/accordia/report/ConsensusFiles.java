@@ -117,7 +117,8 @@ public final class ConsensusFiles implements CaseSink {
             }
         }
         if (folder != null && work.multiLabel() != null) {
-            LabelVolume ml = ConsensusOutputs.labelConsensus(masks, work.multiLabel());
+            LabelVolume ml = ConsensusOutputs.labelConsensus(masks, work.multiLabel(),
+                work.multiLabel().histogram().nonzeroBox());
             folder.writeAtomically(dir + "/labels_consensus.nii.gz", out -> NiftiWriter.writeLabels(out, ml, GZIP));
         }
         if (keep > 0 && masks.size() >= 2) {

@@ -108,6 +108,15 @@ class LabelTupleBoxTest {
             }
             assertArrayEquals(expectedLabels, gotB);
             assertArrayEquals(expectedLabels, gotI);
+            // the box the histogram kept, and the whole grid as a box: the same volume
+            org.junit.jupiter.api.Assertions.assertNull(hi.nonzeroBox(), "int volumes keep no box");
+            for (org.accordia.agreement.Borders.Box known : new org.accordia.agreement.Borders.Box[] {hb.nonzeroBox(),
+                org.accordia.agreement.Borders.Box.grid(nx, ny, nz)}) {
+                LabelVolume withBox = ConsensusOutputs.labelConsensus(bytes, hb, perTuple, known);
+                for (int i = 0; i < n; i++) {
+                    assertEquals(expectedLabels[i], withBox.label(i));
+                }
+            }
             // values beyond a byte: the int store, same labels
             int[] widePerTuple = java.util.Arrays.stream(perTuple).map(v -> v + 300).toArray();
             LabelVolume wide = ConsensusOutputs.labelConsensus(bytes, hb, widePerTuple);
