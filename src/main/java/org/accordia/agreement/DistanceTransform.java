@@ -210,21 +210,15 @@ public final class DistanceTransform {
                 continue;
             }
             double hq = fq * invW + (double) q * q;
-            double s = Double.NEGATIVE_INFINITY;
-            while (k >= 0) {
-                s = (hq - hk) / (2.0 * (q - v[k]));
-                if (s <= z[k]) {
-                    k--;
-                    if (k >= 0) {
-                        hk = h[k];
-                    }
-                } else {
-                    break;
+            // pop while the new parabola's intersection with the top one, (hq - hk) / (2 (q - v[k])),
+            // lies at or left of z[k]; compared multiplied out (2 (q - v[k]) > 0), divided only once
+            while (k >= 0 && hq - hk <= z[k] * (2.0 * (q - v[k]))) {
+                k--;
+                if (k >= 0) {
+                    hk = h[k];
                 }
             }
-            if (k < 0) {
-                s = Double.NEGATIVE_INFINITY;
-            }
+            double s = k < 0 ? Double.NEGATIVE_INFINITY : (hq - hk) / (2.0 * (q - v[k]));
             k++;
             v[k] = q;
             z[k] = s;
