@@ -93,7 +93,7 @@ public final class BenchCommand implements Callable<Integer> {
 
     @Option(names = "--child-xmx", paramLabel = "SIZE",
         description = "Maximum heap of each child JVM of the memory comparison (default: ${DEFAULT-VALUE}).")
-    String childXmx = "768m";
+    String childXmx = "384m";
 
     @Override
     public Integer call() throws Exception {
