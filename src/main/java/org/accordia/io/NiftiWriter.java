@@ -43,8 +43,8 @@ public final class NiftiWriter {
     }
 
     /**
-     * How the bytes of a volume are encoded. The gzip variants differ only in deflate's level; the
-     * output is deterministic for each and any gzip reader accepts both.
+     * How the bytes of a volume are encoded. The two gzip variants compress differently (speed
+     * against size); each is deterministic and any gzip reader decodes both to the same bytes.
      */
     public enum Compression {
         /** Plain {@code .nii}. */
