@@ -304,15 +304,7 @@ public final class RemlFit {
             bestValue = startValue;
         }
         try {
-            double[] u0 = new double[factors];
-            for (int k = 0; k < factors; k++) {
-                u0[k] = Math.sqrt(start[k]);
-            }
-            SimplexOptimizer simplex = new SimplexOptimizer(1e-12, 1e-14);
-            PointValuePair opt = simplex.optimize(new MaxEval(20_000), GoalType.MINIMIZE, new InitialGuess(u0),
-                    new NelderMeadSimplex(factors, 0.2),
-                    new ObjectiveFunction(u -> safe(objective, fromU(u))));
-            double[] t = fromU(opt.getPoint());
+            double[] t = simplexInU(objective, start, 1e-12, 1e-14, 0.2);
             double v = safe(objective, t);
             if (v < bestValue) {
                 best = t;
@@ -339,20 +331,30 @@ public final class RemlFit {
      * null when it fails or ends on a non-finite criterion (the caller then uses the fallbacks).
      */
     private double[] refitSimplex(java.util.function.ToDoubleFunction<double[]> objective, double[] start) {
-        double[] u0 = new double[factors];
-        for (int k = 0; k < factors; k++) {
-            u0[k] = Math.sqrt(start[k]);
-        }
         try {
-            PointValuePair opt = new SimplexOptimizer(REFIT_RELATIVE_TOLERANCE, REFIT_ABSOLUTE_TOLERANCE)
-                    .optimize(new MaxEval(20_000), GoalType.MINIMIZE, new InitialGuess(u0),
-                            new NelderMeadSimplex(factors, REFIT_STEP),
-                            new ObjectiveFunction(u -> safe(objective, fromU(u))));
-            double[] t = fromU(opt.getPoint());
+            double[] t = simplexInU(objective, start, REFIT_RELATIVE_TOLERANCE, REFIT_ABSOLUTE_TOLERANCE, REFIT_STEP);
             return Double.isFinite(safe(objective, t)) ? t : null;
         } catch (IllegalStateException | ArithmeticException e) {
             return null;
         }
+    }
+
+    /**
+     * Nelder–Mead (commons-math {@code SimplexOptimizer}, at most 20,000 evaluations) on u with
+     * θ = min(u², 10³) from u = √start, initial step {@code step} in u; returns θ of the point found.
+     * Throws what the optimiser throws (evaluations exhausted, arithmetic failure).
+     */
+    private double[] simplexInU(java.util.function.ToDoubleFunction<double[]> objective, double[] start,
+            double relativeTolerance, double absoluteTolerance, double step) {
+        double[] u0 = new double[factors];
+        for (int k = 0; k < factors; k++) {
+            u0[k] = Math.sqrt(start[k]);
+        }
+        PointValuePair opt = new SimplexOptimizer(relativeTolerance, absoluteTolerance)
+                .optimize(new MaxEval(20_000), GoalType.MINIMIZE, new InitialGuess(u0),
+                        new NelderMeadSimplex(factors, step),
+                        new ObjectiveFunction(u -> safe(objective, fromU(u))));
+        return fromU(opt.getPoint());
     }
 
     private static double[] fromU(double[] u) {
