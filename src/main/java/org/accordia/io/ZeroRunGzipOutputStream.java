@@ -157,10 +157,7 @@ public final class ZeroRunGzipOutputStream extends OutputStream {
             return;
         }
         deflater.setInput(b, off, len);
-        while (!deflater.needsInput()) {
-            int n = deflater.deflate(buf, 0, buf.length, Deflater.NO_FLUSH);
-            out.write(buf, 0, n);
-        }
+        drain(deflater, buf, out);
         stretchHasData = true;
     }
 
@@ -169,11 +166,7 @@ public final class ZeroRunGzipOutputStream extends OutputStream {
         if (!stretchHasData) {
             return;
         }
-        int n;
-        do {
-            n = deflater.deflate(buf, 0, buf.length, Deflater.SYNC_FLUSH);
-            out.write(buf, 0, n);
-        } while (n == buf.length);
+        syncFlush(deflater, buf, out);
         deflater.reset();
         stretchHasData = false;
     }
@@ -190,21 +183,33 @@ public final class ZeroRunGzipOutputStream extends OutputStream {
                 while (left > 0) {
                     int n = (int) Math.min(left, zeros.length);
                     d.setInput(zeros, 0, n);
-                    while (!d.needsInput()) {
-                        o.write(chunk, 0, d.deflate(chunk, 0, chunk.length, Deflater.NO_FLUSH));
-                    }
+                    drain(d, chunk, o);
                     left -= n;
                 }
-                int n;
-                do {
-                    n = d.deflate(chunk, 0, chunk.length, Deflater.SYNC_FLUSH);
-                    o.write(chunk, 0, n);
-                } while (n == chunk.length);
+                syncFlush(d, chunk, o);
                 return o.toByteArray();
+            } catch (IOException e) {
+                throw new java.io.UncheckedIOException(e); // a ByteArrayOutputStream does not fail
             } finally {
                 d.end();
             }
         });
+    }
+
+    /** Compresses all of the deflater's pending input (no flush), writing what it emits. */
+    private static void drain(Deflater d, byte[] buf, OutputStream to) throws IOException {
+        while (!d.needsInput()) {
+            to.write(buf, 0, d.deflate(buf, 0, buf.length, Deflater.NO_FLUSH));
+        }
+    }
+
+    /** Sync-flushes the deflater: byte-aligned, non-final blocks, all of them written. */
+    private static void syncFlush(Deflater d, byte[] buf, OutputStream to) throws IOException {
+        int n;
+        do {
+            n = d.deflate(buf, 0, buf.length, Deflater.SYNC_FLUSH);
+            to.write(buf, 0, n);
+        } while (n == buf.length);
     }
 
     /** Writes the rest of the data, the final block and the trailer; the target stays open. */
