@@ -137,24 +137,13 @@ public final class ConsensusOutputs {
         Geometry g = masks.get(0).geometry();
         boolean[] inside = bm.mask();
         Box box = bm.box();
-        if (outputLabel > 255) {
-            int[] out = new int[masks.get(0).voxelCount()];
-            for (int i = 0; i < inside.length; i++) {
-                if (inside[i]) {
-                    out[box.gridIndex(i, g.nx(), g.ny())] = outputLabel;
-                }
-            }
-            return LabelVolume.ofInts(g, out);
-        }
-        // one byte per voxel straight away: no int grid to allocate and compact
-        byte[] out = new byte[masks.get(0).voxelCount()];
-        byte value = (byte) outputLabel;
+        Output out = Output.forMax(outputLabel, masks.get(0).voxelCount());
         for (int i = 0; i < inside.length; i++) {
             if (inside[i]) {
-                out[box.gridIndex(i, g.nx(), g.ny())] = value;
+                out.set(box.gridIndex(i, g.nx(), g.ny()), outputLabel);
             }
         }
-        return LabelVolume.ofBytes(g, out);
+        return out.volume(g);
     }
 
     /**
@@ -191,8 +180,7 @@ public final class ConsensusOutputs {
         for (int v : labelPerTuple) {
             maxValue = Math.max(maxValue, v);
         }
-        // bytes straight away when every value fits (the usual case): no int grid to allocate and compact
-        Output out = maxValue <= 255 ? new Output(null, new byte[n]) : new Output(new int[n], null);
+        Output out = Output.forMax(maxValue, n);
         boolean allBytes = masks.stream().allMatch(LabelVolume::isCompact);
         Box box = !allBytes ? null : nonzeroBox != null ? nonzeroBox : Patterns.nonzeroByteBox(masks);
         if (box != null) {
@@ -232,6 +220,19 @@ public final class ConsensusOutputs {
 
     /** A label grid being filled: ints, or bytes when every value fits in 0..255. */
     private record Output(int[] ints, byte[] bytes) {
+        /** Bytes straight away when every value fits (the usual case): no int grid to allocate and compact. */
+        static Output forMax(int maxValue, int voxels) {
+            return maxValue <= 255 ? new Output(null, new byte[voxels]) : new Output(new int[voxels], null);
+        }
+
+        void set(int index, int value) {
+            if (bytes != null) {
+                bytes[index] = (byte) value;
+            } else {
+                ints[index] = value;
+            }
+        }
+
         void fill(int value) {
             if (bytes != null) {
                 Arrays.fill(bytes, (byte) value);
