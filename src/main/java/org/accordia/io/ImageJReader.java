@@ -170,11 +170,13 @@ public final class ImageJReader implements VolumeReader {
             Payload.voxelCount(file, new long[] {w, ht}, limits);
             return;
         }
+        // ImageJ follows the directory chain without a bound: refuse a loop before it starts
+        TiffDirectories.count(file, limits.maxVoxels());
         FileInfo[] info;
         try {
             Path parent = file.toAbsolutePath().getParent();
             info = new TiffDecoder(parent.toString() + java.io.File.separator, file.getFileName().toString()).getTiffInfo();
-        } catch (IOException | RuntimeException e) {
+        } catch (IOException | RuntimeException | OutOfMemoryError e) {
             throw new InputException(file, "not a readable TIFF: " + e.getMessage(), e);
         }
         if (info == null || info.length == 0) {
