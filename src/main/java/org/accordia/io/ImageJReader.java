@@ -122,9 +122,7 @@ public final class ImageJReader implements VolumeReader {
     }
 
     private static ImagePlus open(Path file, ReadLimits limits) throws InputException {
-        if (!Files.isRegularFile(file)) {
-            throw new InputException(file, Files.exists(file) ? "not a regular file" : "file not found");
-        }
+        InputFiles.requireRegular(file);
         String name = file.getFileName().toString().toLowerCase(Locale.ROOT);
         checkDeclaredSize(file, limits, name.endsWith(".png"));
         Opener opener = new Opener();

@@ -195,9 +195,6 @@ public final class MetaImageReader implements VolumeReader {
                 throw new InputException(file, "ElementDataFile \"" + clip(dataName) + "\": lists and file patterns are not supported");
             }
             dataFile = TextHeaders.dataFile(file, dataName, limits);
-            if (!Files.isRegularFile(dataFile)) {
-                throw new InputException(file, "data file not found: " + dataFile);
-            }
             long headerSize = keys.containsKey("headersize") ? TextHeaders.parseLong(file, "HeaderSize", keys.get("headersize")) : 0;
             if (headerSize < -1) {
                 throw new InputException(file, "HeaderSize " + headerSize + " is below -1");

@@ -70,6 +70,7 @@ public final class NiftiReader implements VolumeReader {
     }
 
     static Header readHeader(Path file, ReadLimits limits) throws InputException {
+        InputFiles.requireRegular(file);
         long size = Payload.fileSize(file, file);
         byte[] raw = new byte[NIFTI2_HEADER];
         boolean gzip;

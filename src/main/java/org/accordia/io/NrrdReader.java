@@ -183,9 +183,6 @@ public final class NrrdReader implements VolumeReader {
             }
             dataFile = TextHeaders.dataFile(file, name, limits);
             offset = 0;
-            if (!Files.isRegularFile(dataFile)) {
-                throw new InputException(file, "data file not found: " + dataFile);
-            }
         }
         offset = skipLines(file, dataFile, offset, lineSkip);
         Payload.Layout layout;

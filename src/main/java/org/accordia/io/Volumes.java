@@ -1,6 +1,5 @@
 package org.accordia.io;
 
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
@@ -70,12 +69,7 @@ public final class Volumes {
     }
 
     private static VolumeReader require(Path file) throws InputException {
-        if (!Files.exists(file)) {
-            throw new InputException(file, "file not found");
-        }
-        if (!Files.isRegularFile(file)) {
-            throw new InputException(file, "not a regular file");
-        }
+        InputFiles.requireRegular(file); // before anything opens it: a FIFO or device would block or never end
         VolumeReader r = readerFor(file);
         if (r == null) {
             throw new InputException(file, "unrecognised volume format (expected .nii, .nii.gz, .nrrd, .nhdr, .mha, .mhd, .tif, .tiff or .png)");
