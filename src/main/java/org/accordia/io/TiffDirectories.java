@@ -21,7 +21,8 @@ import java.util.Set;
  * accepts the directory (1 to 1000 entries); a next-IFD offset that points back at an IFD already
  * visited makes that loop endless. This walk follows the chain the same way, with a bound:
  * it refuses a chain that revisits an offset (a loop), and a chain longer than the file could
- * hold (each IFD is at least 18 bytes) or than {@code maxDirectories}.
+ * hold (each IFD is at least 18 bytes) or than {@code maxDirectories}. It also refuses an entry
+ * declaring more values than the file holds, which ImageJ would allocate before reading.
  */
 final class TiffDirectories {
     /** Entries ImageJ's IFD parser accepts in one directory. */
@@ -72,6 +73,7 @@ final class TiffDirectories {
                     throw new InputException(file, "TIFF declares more than " + bound + " image directories"
                         + (bound == maxDirectories ? " (the voxel limit)" : " (more than the file can hold)"));
                 }
+                checkEntries(file, read(ch, offset + 2, 12 * entries).order(head.order()), size, n);
                 ByteBuffer next = read(ch, offset + 2 + 12L * entries, 4).order(head.order());
                 // ImageJ reads past the end of the file as -1 bytes: an offset of 0xFFFFFFFF, beyond
                 // the file, where the next directory is rejected. Stop there too.
@@ -86,6 +88,33 @@ final class TiffDirectories {
         } catch (IOException e) {
             throw new InputException(file, "cannot read: " + e.getMessage(), e);
         }
+    }
+
+    /**
+     * Refuses a directory entry whose values could not fit in the file: ImageJ allocates an array
+     * of the declared count before reading it (a count of 7 × 10^8 costs gigabytes), whereas every
+     * value of a well-formed file is stored in the file (or inline in the entry).
+     */
+    private static void checkEntries(Path file, ByteBuffer entries, long size, long directory) throws InputException {
+        for (int at = 0; at + 12 <= entries.limit(); at += 12) {
+            int tag = entries.getShort(at) & 0xFFFF;
+            int type = entries.getShort(at + 2) & 0xFFFF;
+            long count = entries.getInt(at + 4) & 0xFFFFFFFFL;
+            if (count * typeBytes(type) > size) {
+                throw new InputException(file, "TIFF directory " + directory + ": tag " + tag + " declares " + count
+                    + " values, more than the file's " + size + " bytes hold");
+            }
+        }
+    }
+
+    /** Bytes per value of a TIFF field type (TIFF 6.0 section 2; 16-18 from BigTIFF); 1 when unknown. */
+    private static int typeBytes(int type) {
+        return switch (type) {
+            case 3, 8 -> 2;        // SHORT, SSHORT
+            case 4, 9, 11, 13 -> 4; // LONG, SLONG, FLOAT, IFD
+            case 5, 10, 12, 16, 17, 18 -> 8; // RATIONAL, SRATIONAL, DOUBLE, LONG8, SLONG8, IFD8
+            default -> 1;          // BYTE, ASCII, SBYTE, UNDEFINED and unknown types
+        };
     }
 
     /** Up to {@code n} bytes at {@code position} (fewer at the end of the file), flipped for reading. */
