@@ -90,7 +90,7 @@ class HostileCorpusTest {
             new Kind("manifest-bad-quoting", "manifest.csv", "malformed CSV"),
             new Kind("manifest-unknown-extension", "b.txt", "unrecognised volume format"),
             new Kind("manifest-reader-under-two-centres", "manifest.csv", "a reader belongs to exactly one centre"),
-            new Kind("manifest-long-file-name", "n".repeat(300) + ".nii", "file not found"),
+            new Kind("manifest-long-file-name", "n".repeat(300) + ".nii", "File name too long"),
             new Kind("manifest-not-utf8", "manifest.csv", "not valid UTF-8 text"),
             new Kind("protocol-unknown-key", "protocol.yaml", "shift.alpah: unknown key"),
             new Kind("protocol-wrong-type", "protocol.yaml", "geometry_tolerance_mm: expected a number, got a list"),
