@@ -3,6 +3,7 @@ package org.accordia.cli;
 import java.io.PrintWriter;
 import java.util.Arrays;
 import org.accordia.io.InputException;
+import org.accordia.io.Messages;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
@@ -49,20 +50,20 @@ public final class Main implements Runnable {
         cl.setErr(err);
         cl.setExitCodeExceptionMapper(t -> t instanceof InputException ? ExitCodes.INPUT : ExitCodes.INTERNAL);
         cl.setParameterExceptionHandler((ex, a) -> {
-            err.println("accordia: " + ex.getMessage().replace('\n', ' '));
+            err.println("accordia: " + Messages.oneLine(ex.getMessage()));
             err.flush();
             return ExitCodes.INPUT;
         });
         cl.setExecutionExceptionHandler((ex, commandLine, parseResult) -> {
             if (ex instanceof InputException ie) {
-                err.println("accordia: " + ie.getMessage());
+                err.println("accordia: " + Messages.oneLine(ie.getMessage()));
                 if (debug) {
                     ie.printStackTrace(err);
                 }
                 err.flush();
                 return ExitCodes.INPUT;
             }
-            err.println("accordia: internal error: " + ex + (debug ? "" : " (rerun with --debug for details)"));
+            err.println("accordia: internal error: " + Messages.oneLine(String.valueOf(ex)) + (debug ? "" : " (rerun with --debug for details)"));
             if (debug) {
                 ex.printStackTrace(err);
             }

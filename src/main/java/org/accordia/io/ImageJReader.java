@@ -209,7 +209,70 @@ public final class ImageJReader implements VolumeReader {
         }
         long slices = info.length > 1 ? info.length : Math.max(1, info[0].nImages);
         Payload.voxelCount(file, new long[] {info[0].width, info[0].height, slices}, limits);
+        checkPixelsFit(file, info);
         return info;
+    }
+
+    /** Largest expansion assumed of a compressed TIFF strip (LZW, PackBits, deflate, ...). */
+    private static final long COMPRESSED_MAX_RATIO = 4096;
+
+    /**
+     * Refuses directories whose pixels cannot be in the file, before ImageJ allocates and reads
+     * them (ImageJ allocates the declared image first, and some of its pixel loops do not end on
+     * a file that is too short): uncompressed pixels must fit between their offset and the end of
+     * the file; compressed strips must lie inside the file and declare at most
+     * {@value #COMPRESSED_MAX_RATIO} times their bytes (plus 1 MiB).
+     */
+    private static void checkPixelsFit(Path file, FileInfo[] info) throws InputException {
+        long size;
+        try {
+            size = Files.size(file);
+        } catch (IOException e) {
+            throw new InputException(file, "cannot read: " + e.getMessage(), e);
+        }
+        for (int d = 0; d < info.length; d++) {
+            FileInfo fi = info[d];
+            long images = info.length > 1 ? 1 : Math.max(1, fi.nImages);
+            long pixelBytes;
+            long end;
+            try {
+                pixelBytes = Math.multiplyExact(Math.multiplyExact(Math.multiplyExact((long) fi.width, fi.height),
+                    Math.max(1, fi.getBytesPerPixel())), images);
+                end = Math.addExact(Math.addExact(fi.getOffset(), pixelBytes),
+                    Math.multiplyExact(Math.max(0, fi.getGap()), images - 1));
+            } catch (ArithmeticException e) {
+                throw new InputException(file, "TIFF directory " + (d + 1) + " declares more pixel bytes than 64 bits count");
+            }
+            if (fi.getOffset() < 0 || fi.getOffset() > size) {
+                throw new InputException(file, "TIFF directory " + (d + 1) + ": pixel data offset " + fi.getOffset()
+                    + " lies outside the file (" + size + " bytes)");
+            }
+            if (fi.compression <= FileInfo.COMPRESSION_NONE) {
+                if (end > size) {
+                    throw new InputException(file, "truncated data: TIFF directory " + (d + 1) + " declares " + pixelBytes
+                        + " bytes of uncompressed pixels from offset " + fi.getOffset() + ", the file has " + size + " bytes");
+                }
+                continue;
+            }
+            long compressed = 0;
+            if (fi.stripOffsets != null && fi.stripLengths != null) {
+                for (int i = 0; i < Math.min(fi.stripOffsets.length, fi.stripLengths.length); i++) {
+                    long off = fi.stripOffsets[i] & 0xFFFFFFFFL;
+                    long len = fi.stripLengths[i] & 0xFFFFFFFFL;
+                    if (off + len > size) {
+                        throw new InputException(file, "TIFF directory " + (d + 1) + ": strip " + (i + 1) + " (offset " + off
+                            + ", " + len + " bytes) lies beyond the end of the file (" + size + " bytes)");
+                    }
+                    compressed += len;
+                }
+            } else {
+                compressed = size - fi.getOffset();
+            }
+            if (pixelBytes > COMPRESSED_MAX_RATIO * compressed + (1 << 20)) {
+                throw new InputException(file, "TIFF directory " + (d + 1) + " declares " + pixelBytes + " bytes of pixels in "
+                    + compressed + " compressed bytes (more than " + COMPRESSED_MAX_RATIO + " times)");
+            }
+        }
     }
 
     /**

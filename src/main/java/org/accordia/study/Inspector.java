@@ -123,7 +123,7 @@ public final class Inspector {
             }
         }
         return new InspectionReport(study.root(), study.manifest(), protocol.study(), study.centres(), study.readers(),
-            cases, labels, structures, study.missing(), problems);
+            cases, labels, structures, study.missing(InspectionReport.LIST_CAP), problems, study.missingCount());
     }
 
     private record CaseResult(InspectionReport.CaseSummary summary, List<StudyProblem> problems) {

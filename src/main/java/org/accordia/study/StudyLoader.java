@@ -19,6 +19,7 @@ import java.util.Set;
 import java.util.TreeMap;
 import java.util.TreeSet;
 import org.accordia.io.InputException;
+import org.accordia.io.InputFiles;
 import org.accordia.io.Volumes;
 import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
@@ -67,7 +68,8 @@ public final class StudyLoader {
         }
         if (Files.isDirectory(studyArg)) {
             Path manifest = studyArg.resolve(MANIFEST);
-            if (Files.isRegularFile(manifest)) {
+            if (InputFiles.present(manifest)) {
+                // a manifest that is a named pipe, a folder or a broken link is refused, not skipped
                 return loadManifest(manifest, options);
             }
             return loadLayout(studyArg, options);
@@ -347,12 +349,17 @@ public final class StudyLoader {
         Map<String, Long> pairLine = new HashMap<>();
         Map<String, Long> imageLine = new HashMap<>();
 
+        InputFiles.requireRegular(manifest);
         String text;
         try {
             if (Files.size(manifest) > MAX_MANIFEST_BYTES) {
                 throw new InputException(manifest, "manifest larger than " + MAX_MANIFEST_BYTES + " bytes");
             }
             text = decoder.decode(java.nio.ByteBuffer.wrap(Files.readAllBytes(manifest))).toString();
+            if (text.startsWith("\uFEFF")) {
+                // a UTF-8 byte-order mark, as spreadsheet programs write it: not part of the first column's name
+                text = " " + text.substring(1);
+            }
         } catch (CharacterCodingException e) {
             throw new InputException(manifest, "not valid UTF-8 text", e);
         } catch (IOException e) {
@@ -367,7 +374,7 @@ public final class StudyLoader {
             }
             for (String h : header) {
                 if (!REQUIRED.contains(h) && !h.equals(OPTIONAL_IMAGE)) {
-                    throw new InputException(manifest, "line 1: unknown column '" + h
+                    throw new InputException(manifest, "line 1: unknown column '" + org.accordia.io.Messages.clip(h, 80)
                         + "' (expected columns case,centre,reader,path and optionally image)");
                 }
             }
