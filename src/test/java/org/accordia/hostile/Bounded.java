@@ -45,9 +45,9 @@ public final class Bounded implements AutoCloseable {
             return null;
         });
         long bound = warm ? SECONDS : FIRST_SECONDS;
+        warm = true;
         try {
             f.get(bound, TimeUnit.SECONDS);
-            warm = true;
         } catch (TimeoutException e) {
             f.cancel(true);
             throw new AssertionError("input took more than " + bound + " s (a hang)");
