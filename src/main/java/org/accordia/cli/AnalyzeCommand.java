@@ -98,9 +98,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        if (threads < 1) {
-            throw new CommandLine.ParameterException(spec.commandLine(), "--threads must be at least 1");
-        }
+        ThreadCount.check(spec.commandLine(), threads);
         read.check(spec.commandLine());
         Verdict failLevel = null;
         if (failOn != null) {
@@ -140,13 +138,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
         } else if (Files.isRegularFile(inStudy)) {
             inputs.add(inStudy);
         }
-        Path outAbs = out.toAbsolutePath().normalize();
-        for (Path p : inputs) {
-            if (p.toAbsolutePath().normalize().startsWith(outAbs)) {
-                throw new InputException(out, "the output folder holds input files (" + p.getFileName()
-                    + "); choose an output folder outside the study");
-            }
-        }
+        OutputFolder.requireOutsideStudy(out, s.root(), inputs);
         // checksums before anything is written: they name the bytes the report was made from
         List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, s.root());
         OutputFolder folder = OutputFolder.prepare(out, force);

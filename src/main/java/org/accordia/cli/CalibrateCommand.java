@@ -83,7 +83,8 @@ public final class CalibrateCommand implements Callable<Integer> {
         if (size.length != 3 || spacing.length != 3) {
             throw new CommandLine.ParameterException(spec.commandLine(), "--size and --spacing need three values X,Y,Z");
         }
-        if (runs < 1 || threads < 1 || cases < 2) {
+        ThreadCount.check(spec.commandLine(), threads);
+        if (runs < 1 || cases < 2) {
             throw new CommandLine.ParameterException(spec.commandLine(),
                 "--runs and --threads must be at least 1, --cases at least 2");
         }

@@ -62,9 +62,7 @@ public final class InspectCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        if (threads < 1) {
-            throw new CommandLine.ParameterException(spec.commandLine(), "--threads must be at least 1");
-        }
+        ThreadCount.check(spec.commandLine(), threads);
         read.check(spec.commandLine());
         Protocol protocol = protocolFile == null ? Protocol.defaults() : Protocol.load(protocolFile);
         protocol = read.apply(protocol);
