@@ -18,6 +18,7 @@ import org.accordia.analysis.LabelResult;
 import org.accordia.analysis.StudyAnalysis;
 import org.accordia.analysis.StudyResult;
 import org.accordia.io.InputException;
+import org.accordia.io.InputFiles;
 import org.accordia.report.AnalysisReport;
 import org.accordia.report.ConsensusFiles;
 import org.accordia.report.OutputFolder;
@@ -116,7 +117,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
         if (protocolFile != null) {
             protocol = Protocol.load(protocolFile);
             protocolSource = "the file given with --protocol (" + protocolFile.getFileName() + ")";
-        } else if (Files.isRegularFile(inStudy)) {
+        } else if (InputFiles.present(inStudy)) {
             protocol = Protocol.load(inStudy);
             protocolSource = STUDY_PROTOCOL + " in the study folder";
         } else {
@@ -135,12 +136,13 @@ public final class AnalyzeCommand implements Callable<Integer> {
         List<Path> inputs = new java.util.ArrayList<>(source.inputFiles());
         if (protocolFile != null) {
             inputs.add(protocolFile);
-        } else if (Files.isRegularFile(inStudy)) {
+        } else if (InputFiles.present(inStudy)) {
             inputs.add(inStudy);
         }
         OutputFolder.requireOutsideStudy(out, s.root(), inputs);
         // checksums before anything is written: they name the bytes the report was made from
-        List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, s.root());
+        List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, s.root(),
+            protocol.readLimits(read.allowOutsideRoot()));
         OutputFolder folder = OutputFolder.prepare(out, force);
         PrintWriter err = spec.commandLine().getErr();
         long t0 = System.nanoTime();

@@ -57,6 +57,12 @@ public final class MetaImageReader implements VolumeReader {
         return readHeader(file, limits).geometry();
     }
 
+    @Override
+    public long bytesRead(Path file, ReadLimits limits) throws InputException {
+        NrrdReader.Header h = readHeader(file, limits);
+        return Payload.bytesRead(file, h.layout(), h.geometry().voxelCount());
+    }
+
     static SampleType sampleType(String elementType) {
         return switch (elementType.trim().toUpperCase(Locale.ROOT)) {
             case "MET_CHAR" -> SampleType.INT8;

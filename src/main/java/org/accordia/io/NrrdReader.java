@@ -56,6 +56,12 @@ public final class NrrdReader implements VolumeReader {
         return readHeader(file, limits).geometry();
     }
 
+    @Override
+    public long bytesRead(Path file, ReadLimits limits) throws InputException {
+        Header h = readHeader(file, limits);
+        return Payload.bytesRead(file, h.layout(), h.geometry().voxelCount());
+    }
+
     record Header(Geometry geometry, Payload.Layout layout) {
     }
 

@@ -55,6 +55,11 @@ public final class Volumes {
         return require(file).readGeometry(file, limits);
     }
 
+    /** How many leading bytes of {@code file} its reader reads (see {@link VolumeReader#bytesRead}). */
+    public static long bytesRead(Path file, ReadLimits limits) throws InputException {
+        return require(file).bytesRead(file, limits);
+    }
+
     /** The file name without its volume extension (e.g. "case01" for "case01.nii.gz"). */
     public static String stem(Path file) {
         String name = file.getFileName().toString();

@@ -140,7 +140,7 @@ public final class Inspector {
             readers.add(m.reader());
             LabelVolume v;
             try {
-                v = Volumes.readLabels(m.path(), limits);
+                v = CaseLoader.readMask(m.path(), limits);
             } catch (InputException e) {
                 problems.add(StudyProblem.error(m.path(), "unreadable mask: " + e.problem()));
                 continue;
