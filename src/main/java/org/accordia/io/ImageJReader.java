@@ -28,7 +28,11 @@ import java.util.Locale;
  * without a unit ("pixel") gets 1 mm per pixel times its pixel size. The affine is diagonal with
  * zero origin: these formats carry no orientation. A single image (one slice) gets a z spacing
  * of 1 mm. Before ImageJ reads any pixels, the size
- * declared by the TIFF directory or the PNG IHDR chunk is checked against the limits.
+ * declared by the TIFF directory or the PNG IHDR chunk is checked against the limits. A TIFF's
+ * directory chain is walked first ({@link TiffDirectories}: loops and impossible value counts are
+ * refused), ImageJ decodes the directories through a read budget, the pixels must be able to lie
+ * in the file, and the pixels are then opened from those directories (ImageJ's {@code Opener}
+ * would decode them again without a bound). See docs/formats.md.
  */
 public final class ImageJReader implements VolumeReader {
     @Override

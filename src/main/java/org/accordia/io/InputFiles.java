@@ -26,7 +26,11 @@ public final class InputFiles {
     public static String problem(Path file) {
         BasicFileAttributes a;
         try {
-            a = Files.readAttributes(file, BasicFileAttributes.class);
+            // one system call for the usual cases (a regular file, a missing one); links are followed after
+            a = Files.readAttributes(file, BasicFileAttributes.class, LinkOption.NOFOLLOW_LINKS);
+            if (a.isSymbolicLink()) {
+                a = Files.readAttributes(file, BasicFileAttributes.class);
+            }
         } catch (NoSuchFileException e) {
             return Files.isSymbolicLink(file) ? "dangling symbolic link (its target does not exist)" : "file not found";
         } catch (FileSystemException e) {
