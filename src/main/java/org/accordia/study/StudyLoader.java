@@ -341,9 +341,10 @@ public final class StudyLoader {
             .setDuplicateHeaderMode(DuplicateHeaderMode.DISALLOW)
             .get();
 
-        Set<String> centres = new TreeSet<>();
-        Set<ReaderId> readers = new TreeSet<>();
-        Set<String> cases = new TreeSet<>();
+        // hash sets while reading (10^6 rows); the Study sorts them once
+        Set<String> centres = new java.util.HashSet<>();
+        Set<ReaderId> readers = new java.util.HashSet<>();
+        Set<String> cases = new java.util.HashSet<>();
         List<MaskRef> masks = new ArrayList<>();
         Map<String, Path> images = new TreeMap<>();
         Map<String, String> readerCentre = new HashMap<>();
