@@ -13,8 +13,12 @@ import java.util.concurrent.TimeoutException;
  * fuzzing run is one test invocation. A hang becomes an {@link AssertionError} (a finding).
  */
 public final class Bounded implements AutoCloseable {
-    /** Seconds one input may take; far above the milliseconds a tiny input needs. */
-    public static final long SECONDS = 10;
+    /**
+     * Seconds one input may take; far above the milliseconds a tiny input needs, and above the
+     * 10 s that a few replayed inputs exceeded (never reproducibly) on a machine with a load
+     * average of 28 on 2 cores.
+     */
+    public static final long SECONDS = 30;
     /**
      * Seconds the first input may take: it also loads and (in fuzzing mode) instruments every
      * reader class, which took 11 to 16 s on a machine with a load average of 38.
