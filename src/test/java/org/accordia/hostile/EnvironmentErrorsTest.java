@@ -26,12 +26,8 @@ class EnvironmentErrorsTest {
     static Path study;
 
     @BeforeAll
-    static void generate() throws Exception {
-        study = tmp.resolve("study");
-        Run r = run("demo", "--out", study.toString(), "--size", "16,16,6", "--spacing", "2,2,5", "--cases", "2",
-            "--centres", "2", "--readers-per-centre", "2");
-        assertEquals(0, r.code(), r.err());
-        Files.writeString(study.resolve("protocol.yaml"), AnalyzeHostileTest.LIGHT);
+    static void generate() {
+        study = AnalyzeHostileTest.smallDemo(tmp.resolve("study"));
     }
 
     private static void refused(Run r, String... phrases) {

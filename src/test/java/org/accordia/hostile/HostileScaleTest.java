@@ -60,11 +60,7 @@ class HostileScaleTest {
     @Test
     @Timeout(value = 600, unit = TimeUnit.SECONDS, threadMode = Timeout.ThreadMode.SEPARATE_THREAD)
     void aHundredGigabyteTailIsNeitherReadNorHashed() throws Exception {
-        Path study = tmp.resolve("study");
-        Run g = run("demo", "--out", study.toString(), "--size", "16,16,6", "--spacing", "2,2,5", "--cases", "2",
-            "--centres", "2", "--readers-per-centre", "2");
-        assertEquals(0, g.code(), g.err());
-        Files.writeString(study.resolve("protocol.yaml"), AnalyzeHostileTest.LIGHT);
+        Path study = AnalyzeHostileTest.smallDemo(tmp.resolve("study"));
         Files.delete(study.resolve("manifest.csv"));
         Path gz = study.resolve("esterhaven/est1/case01.nii.gz");
         Path raw = study.resolve("esterhaven/est1/case01.nii");

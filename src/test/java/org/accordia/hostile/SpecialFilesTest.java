@@ -50,15 +50,7 @@ class SpecialFilesTest {
 
     @BeforeAll
     static void generate() {
-        demo = shared.resolve("demo");
-        Run r = run("demo", "--out", demo.toString(), "--size", "16,16,6", "--spacing", "2,2,5", "--cases", "2",
-            "--centres", "2", "--readers-per-centre", "2");
-        assertEquals(0, r.code(), r.err());
-        try {
-            Files.writeString(demo.resolve("protocol.yaml"), AnalyzeHostileTest.LIGHT);
-        } catch (IOException e) {
-            throw new java.io.UncheckedIOException(e);
-        }
+        demo = AnalyzeHostileTest.smallDemo(shared.resolve("demo"));
     }
 
     @AfterAll
