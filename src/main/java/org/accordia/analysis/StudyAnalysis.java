@@ -141,7 +141,7 @@ public final class StudyAnalysis {
         CaseRecord[] records = new CaseRecord[caseIds.size()];
         forEachCase(caseIds, options.threads(), i -> {
             LoadedCase lc = source.load(caseIds.get(i));
-            records[i] = analyseCase(lc, structures, multiLabel, undecided, staple, region, sink);
+            records[i] = analyseCase(lc, structures, multiLabel, undecided, staple, region, protocol.agreement().hd95(), sink);
             caseDone.run();
         });
         ShiftSettings settings = options.shiftSettings() != null ? options.shiftSettings() : shiftSettings(protocol);
@@ -264,7 +264,8 @@ public final class StudyAnalysis {
 
     /** One case: agreement, consensus, sink, record. Package-private for tests. */
     static CaseRecord analyseCase(LoadedCase lc, List<Structure> structures, boolean multiLabel, int undecided,
-            StapleOptions staple, Protocol.ConsensusRegion region, CaseSink sink) throws IOException {
+            StapleOptions staple, Protocol.ConsensusRegion region, Protocol.Hd95Mode hd95, CaseSink sink)
+            throws IOException {
         List<ReaderId> readers = lc.readers();
         List<LabelVolume> masks = lc.masks();
         List<String> names = readers.stream().map(ReaderId::reader).toList();
@@ -279,7 +280,7 @@ public final class StudyAnalysis {
         CaseAgreement[] bySlot = new CaseAgreement[structures.size()];
         for (var e : byTolerance.entrySet()) {
             List<Structure> group = e.getValue().stream().map(structures::get).toList();
-            List<CaseAgreement> got = new CaseAgreementEngine(e.getKey(), e.getKey(), null)
+            List<CaseAgreement> got = new CaseAgreementEngine(e.getKey(), e.getKey(), hd95, null)
                 .evaluate(lc.caseId(), readers, masks, group);
             for (int k = 0; k < got.size(); k++) {
                 bySlot[e.getValue().get(k)] = got.get(k);
