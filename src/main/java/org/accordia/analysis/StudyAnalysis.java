@@ -45,11 +45,13 @@ import org.accordia.shift.ReaderCaseMeasure;
 import org.accordia.shift.ReaderMeasure;
 import org.accordia.shift.ShiftAnalysis;
 import org.accordia.shift.ShiftSettings;
+import org.accordia.study.Analysability;
 import org.accordia.study.CaseReader;
 import org.accordia.study.LoadedCase;
 import org.accordia.study.Protocol;
 import org.accordia.study.ReaderId;
 import org.accordia.study.Structure;
+import org.accordia.study.StudyProblem;
 
 /**
  * One study from its cases to its decision: the library pipeline behind {@code accordia analyze},
@@ -130,8 +132,7 @@ public final class StudyAnalysis {
             : scanLabels(source, options.threads());
         List<Structure> structures = protocol.structuresFor(labelValues);
         if (structures.isEmpty()) {
-            throw new InputException(source.inputFiles().isEmpty() ? null : source.inputFiles().get(0),
-                "no mask holds any foreground label, so there is no structure to analyse");
+            refuse(Analysability.noStructureVoxels(structures, s -> false, source.where()));
         }
         boolean multiLabel = labelValues.size() > 1;
         int undecided = multiLabel ? UndecidedLabel.defaultFor(labelValues.stream().mapToInt(Integer::intValue).toArray())
@@ -144,8 +145,12 @@ public final class StudyAnalysis {
             records[i] = analyseCase(lc, structures, multiLabel, undecided, staple, region, protocol.agreement().hd95(), sink);
             caseDone.run();
         });
-        ShiftSettings settings = options.shiftSettings() != null ? options.shiftSettings() : shiftSettings(protocol);
         List<CaseRecord> cases = List.of(records);
+        // the analysability rule on what the cases hold: no voxel of any structure in any mask stops the run
+        refuse(Analysability.noStructureVoxels(structures, st -> cases.stream().anyMatch(c -> c.structures().stream()
+            .anyMatch(sc -> sc.structure().equals(st) && sc.agreement().voxelCounts().stream().anyMatch(n -> n > 0))),
+            source.where()));
+        ShiftSettings settings = options.shiftSettings() != null ? options.shiftSettings() : shiftSettings(protocol);
         TreeSet<ReaderId> readers = new TreeSet<>();
         cases.forEach(c -> readers.addAll(c.readers()));
         Map<ReaderId, String> keys = readerKeys(readers);
@@ -158,6 +163,12 @@ public final class StudyAnalysis {
         return new StudyResult(protocol.withSeed(settings.seed()), settings, structures, List.copyOf(readers),
             List.copyOf(centres), cases, List.of(labels), events(cases, source.missing()),
             staple.region(), undecided);
+    }
+
+    private static void refuse(StudyProblem p) throws InputException {
+        if (p != null) {
+            throw new InputException(p.file(), p.message());
+        }
     }
 
     // ------------------------------------------------------------------ per case
