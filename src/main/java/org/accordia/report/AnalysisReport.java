@@ -52,10 +52,17 @@ public final class AnalysisReport {
      * @param version the tool's version
      * @param inputs checksums of every input file
      * @param protocolSource where the protocol came from, in words (e.g. "protocol.yaml in the study")
+     * @param protocol where the protocol came from, as summary.json records it
      */
-    public record RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource) {
+    public record RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource,
+                          SummaryJson.ProtocolInfo protocol) {
         public RunInfo {
             inputs = List.copyOf(inputs);
+        }
+
+        /** A run whose protocol was supplied by the calling program. */
+        public RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource) {
+            this(version, inputs, protocolSource, new SummaryJson.ProtocolInfo("supplied", null));
         }
     }
 
@@ -107,7 +114,7 @@ public final class AnalysisReport {
         out.writeAtomically("cases.csv", Tables.cases(r)::write);
         out.writeAtomically("reader_summary.csv", Tables.readerSummary(r)::write);
         out.writeAtomically("events.csv", Tables.events(r)::write);
-        out.writeAtomically(OutputFolder.SUMMARY_JSON, o -> JsonOutput.write(SummaryJson.of(r, info.version(), info.inputs()), o));
+        out.writeAtomically(OutputFolder.SUMMARY_JSON, o -> JsonOutput.write(SummaryJson.of(r, info.version(), info.protocol(), info.inputs()), o));
     }
 
     /** The HTML report. */

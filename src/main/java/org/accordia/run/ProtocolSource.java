@@ -2,6 +2,7 @@ package org.accordia.run;
 
 import java.nio.file.Path;
 import java.util.Objects;
+import org.accordia.report.SummaryJson;
 
 /**
  * Where a run's protocol came from, in the order of precedence: the file given explicitly, the
@@ -41,6 +42,22 @@ public record ProtocolSource(Kind kind, Path file) {
         if ((kind == Kind.GIVEN || kind == Kind.STUDY) != (file != null)) {
             throw new IllegalArgumentException("a protocol file goes with GIVEN and STUDY only");
         }
+    }
+
+    /**
+     * As summary.json records it: the kind's key and the file relative to the study root, or its
+     * name alone when outside the study (no absolute path, so the file does not depend on where the
+     * study lies).
+     */
+    public SummaryJson.ProtocolInfo info(Path studyRoot) {
+        if (file == null) {
+            return new SummaryJson.ProtocolInfo(kind.key(), null);
+        }
+        Path abs = file.toAbsolutePath().normalize();
+        Path root = studyRoot.toAbsolutePath().normalize();
+        String shown = abs.startsWith(root) ? root.relativize(abs).toString().replace('\\', '/')
+            : String.valueOf(abs.getFileName());
+        return new SummaryJson.ProtocolInfo(kind.key(), shown);
     }
 
     /** The source in words, for the report and the inspection. */

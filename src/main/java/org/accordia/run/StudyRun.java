@@ -158,7 +158,8 @@ public final class StudyRun {
                 consensus, listener::caseDone);
             listener.casesDone();
             AnalysisReport.write(folder, result, consensus.pictures(), source,
-                new AnalysisReport.RunInfo(version, checksums, p.protocolSource().words()), threads);
+                new AnalysisReport.RunInfo(version, checksums, p.protocolSource().words(),
+                    p.protocolSource().info(p.study().root())), threads);
             return new Outcome(result, folder.dir());
         } catch (Exception | Error e) {
             // stop at the first bad input and leave nothing of this run behind (no half set of outputs)
