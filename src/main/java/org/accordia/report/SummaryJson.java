@@ -7,6 +7,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.TreeMap;
+import org.accordia.analysis.AnalysisSettings;
 import org.accordia.analysis.FlaggedEvent;
 import org.accordia.analysis.InputChecksums;
 import org.accordia.analysis.LabelResult;
@@ -135,21 +136,22 @@ public record SummaryJson(
         r.events().forEach(e -> events.merge(e.kind(), 1, Integer::sum));
         return new SummaryJson("Accordia", version,
             new StudyInfo(r.protocol().study(), r.cases().size(), r.readers().size(), r.centres()),
-            settings(r.protocol(), r.shiftSettings()), protocol, r.stapleRegion(),
+            settings(r.settings()), protocol, r.stapleRegion(),
             r.multiLabelUndecided() < 0 ? null : r.multiLabelUndecided(), structures, labels, events, inputs,
             CAUTIONS);
     }
 
     /** The settings used, by their protocol keys (docs/protocol.md), plus the shift resampling sizes. */
-    static Map<String, Object> settings(Protocol p, ShiftSettings s) {
+    static Map<String, Object> settings(AnalysisSettings a) {
+        ShiftSettings s = a.shift().settings();
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("seed", s.seed());
-        m.put("geometry_tolerance_mm", p.geometryToleranceMm());
-        m.put("max_voxels", p.maxVoxels());
-        m.put("agreement.hd95", p.agreement().hd95().key());
-        m.put("consensus.region", p.consensus().region().key());
-        m.put("consensus.bootstrap_resamples", p.consensus().bootstrapResamples());
-        m.put("shift.distance", p.shift().distance().key());
+        m.put("geometry_tolerance_mm", a.read().geometryToleranceMm());
+        m.put("max_voxels", a.read().maxVoxels());
+        m.put("agreement.hd95", a.agreement().hd95().key());
+        m.put("consensus.region", a.consensus().region().key());
+        m.put("consensus.bootstrap_resamples", a.consensus().bootstrapResamples());
+        m.put("shift.distance", a.shift().distance().key());
         m.put("shift.alpha", s.alpha());
         m.put("shift.permutations", s.permutations());
         m.put("shift.exact_limit", s.exactLimit());
