@@ -130,8 +130,9 @@ public final class StudyAnalysis {
         CaseRecord[] records = new CaseRecord[caseIds.size()];
         forEachCase(caseIds, options.threads(), i -> {
             LoadedCase lc = source.load(caseIds.get(i));
+            String id = caseIds.get(i);
             records[i] = analyseCase(lc, structures, multiLabel, undecided, consensus.staple(), consensus.region(),
-                all.agreement().hd95(), sink);
+                all.agreement().hd95(), sink, () -> source.image(id, lc.geometry()));
             caseDone.run();
         });
         List<CaseRecord> cases = List.of(records);
@@ -264,8 +265,8 @@ public final class StudyAnalysis {
 
     /** One case: agreement, consensus, sink, record. Package-private for tests. */
     static CaseRecord analyseCase(LoadedCase lc, List<Structure> structures, boolean multiLabel, int undecided,
-            StapleOptions staple, Protocol.ConsensusRegion region, Protocol.Hd95Mode hd95, CaseSink sink)
-            throws IOException {
+            StapleOptions staple, Protocol.ConsensusRegion region, Protocol.Hd95Mode hd95, CaseSink sink,
+            CaseSink.CaseImage image) throws IOException, InputException {
         List<ReaderId> readers = lc.readers();
         List<LabelVolume> masks = lc.masks();
         List<String> names = readers.stream().map(ReaderId::reader).toList();
@@ -333,7 +334,7 @@ public final class StudyAnalysis {
         }
         double score = worstMedian == Double.POSITIVE_INFINITY ? Double.NaN : 1 - worstMedian;
         CaseRecord record = new CaseRecord(lc.caseId(), readers, empty, out, score, undecidedVoxels);
-        sink.accept(new CaseSink.CaseWork(lc, refs, ml, undecided, record));
+        sink.accept(new CaseSink.CaseWork(lc, refs, ml, undecided, record, image));
         return record;
     }
 

@@ -157,7 +157,7 @@ public final class StudyRun {
             StudyResult result = StudyAnalysis.run(source, p.protocol(), AnalysisOptions.defaults().withThreads(threads),
                 consensus, listener::caseDone);
             listener.casesDone();
-            AnalysisReport.write(folder, result, consensus.pictures(), source,
+            AnalysisReport.write(folder, result, consensus.pictures(),
                 new AnalysisReport.RunInfo(version, checksums, p.protocolSource().words(),
                     p.protocolSource().info(p.study().root())), threads);
             return new Outcome(result, folder.dir());
