@@ -1,7 +1,7 @@
 package org.accordia.consensus;
 
 import java.util.List;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.accordia.io.LabelVolume;
 import org.accordia.study.Structure;
 

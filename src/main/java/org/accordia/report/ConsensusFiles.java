@@ -5,7 +5,7 @@ import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
 import java.util.TreeSet;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.accordia.agreement.CaseAgreement;
 import org.accordia.analysis.CaseRecord;
 import org.accordia.analysis.CaseSink;
