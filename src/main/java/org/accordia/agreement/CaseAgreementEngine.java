@@ -1,5 +1,6 @@
 package org.accordia.agreement;
 
+import org.accordia.stats.Quantiles;
 import java.lang.invoke.MethodHandles;
 import java.lang.invoke.VarHandle;
 import java.nio.ByteOrder;

@@ -3,7 +3,6 @@ package org.accordia.analysis;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.Comparator;
 import java.util.HashMap;
 import java.util.LinkedHashMap;
@@ -35,6 +34,7 @@ import org.accordia.shift.ReaderCaseMeasure;
 import org.accordia.shift.ReaderMeasure;
 import org.accordia.shift.ShiftAnalysis;
 import org.accordia.shift.ShiftSettings;
+import org.accordia.stats.Quantiles;
 import org.accordia.study.Analysability;
 import org.accordia.study.CaseReader;
 import org.accordia.study.LoadedCase;
@@ -424,7 +424,7 @@ public final class StudyAnalysis {
                     }
                 }
                 low.computeIfAbsent(c.readers().get(j), x -> new ArrayList<>())
-                    .add(new Miss(c.caseId(), sc.missedParts().get(j), sc.missedPartsMl().get(j), sens, median(others)));
+                    .add(new Miss(c.caseId(), sc.missedParts().get(j), sc.missedPartsMl().get(j), sens, Quantiles.median(others)));
             }
         }
         List<MissedStructure> out = new ArrayList<>();
@@ -438,14 +438,6 @@ public final class StudyAnalysis {
         // most cases first, then by reader order
         out.sort(Comparator.comparingInt((MissedStructure m) -> -m.cases().size()));
         return out;
-    }
-
-    private static double median(double[] v) {
-        double[] x = Arrays.stream(v).filter(d -> !Double.isNaN(d)).sorted().toArray();
-        if (x.length == 0) {
-            return Double.NaN;
-        }
-        return x.length % 2 == 1 ? x[x.length / 2] : (x[x.length / 2 - 1] + x[x.length / 2]) / 2;
     }
 
     private static List<FlaggedEvent> events(List<CaseRecord> cases, List<CaseReader> missing) {
