@@ -84,6 +84,21 @@ class CalibrationTest {
     }
 
     @Test
+    void hardCasesUnequalRostersAndFourCentresMeetBinomialBounds() throws Exception {
+        Calibration.Result r = reduced(10, "hard", "unequal", "centres-4");
+        // qbinom(0.999, 10, 0.05) = 4; qbinom(0.001, 10, 0.90) = 5
+        for (String k : List.of("hard", "unequal")) {
+            Calibration.ScenarioResult x = r.scenario(k);
+            assertEquals(List.of(), x.failedRuns(), k);
+            assertTrue(row(x, "some centre flagged").count() <= 4, k + " " + x.criteria());
+            assertTrue(row(x, "a reader named for recalibration").count() <= 4, k + " " + x.criteria());
+        }
+        Calibration.ScenarioResult four = r.scenario("centres-4");
+        assertTrue(row(four, "norvale flagged, wider").count() >= 5, four.criteria() + " " + failures(four));
+        assertTrue(row(four, "another centre flagged").count() <= 4, four.criteria().toString());
+    }
+
+    @Test
     void distinctPartitionsFollowTheMultinomialCount() {
         // 9!/(3!^3 3!) = 280; 6!/(3!^2 2!) = 10; 6!/(3! 2! 1!) = 60 (arithmetic)
         Map<String, Long> expected = Map.of("null", 280L, "centres-2", 10L, "unequal", 60L);
