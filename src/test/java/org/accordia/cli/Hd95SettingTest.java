@@ -3,6 +3,8 @@ package org.accordia.cli;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
@@ -97,7 +99,12 @@ class Hd95SettingTest {
         CSVRecord casePooled = AnalyzeCommandTest.csv(tmp.resolve("pooled/cases.csv")).get(0);
         assertEquals(4.55, Double.parseDouble(casePer.get("max_hd95_mm")), 1e-9);
         assertEquals(4.3, Double.parseDouble(casePooled.get("max_hd95_mm")), 1e-9);
-        assertTrue(Files.readString(tmp.resolve("pooled/summary.json")).contains("\"agreement.hd95\": \"pooled\""));
+        String summary = Files.readString(tmp.resolve("pooled/summary.json"));
+        assertTrue(summary.contains("\"agreement.hd95\": \"pooled\""), summary);
+        // the protocol's source is recorded: a file given outside the study, by its name alone
+        JsonNode protocol = new ObjectMapper().readTree(summary).get("protocol");
+        assertEquals("given_file", protocol.get("source").asText());
+        assertEquals("pooled.yaml", protocol.get("file").asText());
     }
 
     static void write(Path p, LabelVolume v) throws Exception {
