@@ -36,11 +36,12 @@ import picocli.CommandLine.Parameters;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
-        "Analyses a study: agreement of every reader pair, STAPLE consensus with each reader's",
-        "performance, the split of disagreement within and between centres with a permutation test,",
-        "and a decision per structure (pool / review / re-annotate). Writes report.html, pairs.csv,",
-        "readers.csv, centres.csv, cases.csv, reader_summary.csv, events.csv, summary.json and the",
-        "consensus masks (consensus/) into the output folder (docs/outputs.md). Inputs are never written."
+        "Analyses a study and decides per structure: pool, review or re-annotate.",
+        "Measures the agreement of every reader pair, estimates the STAPLE consensus with each reader's "
+            + "performance, and splits the disagreement within and between centres with a permutation test.",
+        "Writes report.html, pairs.csv, readers.csv, centres.csv, cases.csv, reader_summary.csv, "
+            + "events.csv, summary.json and the consensus masks (consensus/) into the output folder "
+            + "(docs/outputs.md). Inputs are never written."
     },
     exitCodeListHeading = "%nExit codes:%n",
     exitCodeList = {

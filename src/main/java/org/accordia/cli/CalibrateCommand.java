@@ -25,10 +25,11 @@ import picocli.CommandLine.Option;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
+        "Measures how often the centre flag fires on simulated studies, with and without a shifted centre.",
         "Simulates seeded studies in memory (no file is written) and runs the full analysis on "
             + "each: null studies (reader noise only) and studies where one centre draws a wider margin. "
             + "Prints the flag's false-positive rate and its power (right centre, right direction) with "
-            + "exact 95% intervals, and PASS or FAIL against the two criteria."
+            + "exact 95%% intervals, and PASS or FAIL against the two criteria."
     })
 public final class CalibrateCommand implements Callable<Integer> {
 
