@@ -150,6 +150,10 @@ public final class AnalyzeCommand implements Callable<Integer> {
         }
         // checksums before anything is written: they name the bytes the report was made from
         List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, s.root());
+        AnalysisReport.Run run = new AnalysisReport.Run(AnalysisReport.Run.utc(java.time.Instant.now()),
+            AnalysisReport.Run.commandLine("accordia analyze", spec.commandLine().getParseResult().originalArgs()),
+            s.root().toAbsolutePath().normalize().toString(),
+            inputs.size() > source.inputFiles().size() ? checksums.get(checksums.size() - 1) : null);
         OutputFolder folder = OutputFolder.prepare(out, force);
         PrintWriter err = spec.commandLine().getErr();
         long t0 = System.nanoTime();
@@ -167,7 +171,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 }
             }
             AnalysisReport.write(folder, result, consensus.pictures(), source,
-                new AnalysisReport.RunInfo(VersionProvider.version(), checksums, protocolSource), threads);
+                new AnalysisReport.RunInfo(VersionProvider.version(), checksums, protocolSource).withRun(run), threads);
         } catch (Exception | Error e) {
             // stop at the first bad input and leave nothing of this run behind (no half set of outputs)
             folder.discardThisRun();
