@@ -151,7 +151,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
         // checksums before anything is written: they name the bytes the report was made from
         List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, s.root());
         AnalysisReport.Run run = new AnalysisReport.Run(AnalysisReport.Run.utc(java.time.Instant.now()),
-            AnalysisReport.Run.commandLine("accordia analyze", spec.commandLine().getParseResult().originalArgs()),
+            AnalysisReport.Run.commandLine("accordia", spec.commandLine().getParseResult().originalArgs()),
             s.root().toAbsolutePath().normalize().toString(),
             inputs.size() > source.inputFiles().size() ? checksums.get(checksums.size() - 1) : null);
         OutputFolder folder = OutputFolder.prepare(out, force);

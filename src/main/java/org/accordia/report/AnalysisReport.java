@@ -75,6 +75,7 @@ public final class AnalysisReport {
      *
      * @param startedUtc when the run started, ISO-8601 in UTC (e.g. {@code 2026-12-02T15:31:13Z})
      * @param commandLine the command as typed, e.g. {@code accordia analyze demo-masks --out r}
+     *     ({@link #commandLine(String, List)} from the program name and all its arguments)
      * @param inputRoot the study folder (absolute)
      * @param protocol the protocol file as listed among the inputs with its SHA-256, or {@code null}
      *     when the built-in defaults were used
@@ -446,10 +447,12 @@ public final class AnalysisReport {
             h.figure(Charts.rankedBars(cases, v, states, 1 - s.adjudicationDice(), "1 − median pairwise Dice",
                     "Cases ranked by disagreement, " + l.name(), WIDTH, 380),
                 String.format(Locale.ROOT, "Cases above the line (median pairwise Dice below %s) go to adjudication; "
-                    + "a case can also go there for a large HD95 or an empty mask (see the table above). Hatched "
-                    + "bars: some readers drew no %s in that case (their pairs count with Dice 0). Cases where no "
-                    + "reader drew %s have no bar: they are marked absent, which is not agreement.",
-                    Numbers.format(s.adjudicationDice()), l.name(), l.name()),
+                    + "a case can also go there for a large HD95 or an empty mask (see the table above).%s%s",
+                    Numbers.format(s.adjudicationDice()),
+                    states.contains(StructureCase.PARTLY_DRAWN) ? " Hatched bars: some readers drew no " + l.name()
+                        + " in that case (their pairs count with Dice 0)." : "",
+                    states.contains(StructureCase.ABSENT) ? " Cases where no reader drew " + l.name()
+                        + " have no bar: they are marked absent, which is not agreement." : ""),
                 "Bar chart of cases ranked by disagreement for " + l.name());
         }
     }
@@ -665,9 +668,9 @@ public final class AnalysisReport {
             rows.add(Map.entry("Command", run.commandLine()));
             rows.add(Map.entry("Study folder", run.inputRoot()));
         }
-        rows.add(Map.entry("Protocol", info.protocolSource()
-            + (run != null && run.protocol() != null ? ": " + run.protocol().path() : "")));
+        rows.add(Map.entry("Protocol", info.protocolSource()));
         if (run != null && run.protocol() != null) {
+            rows.add(Map.entry("Protocol file", run.protocol().path()));
             rows.add(Map.entry("Protocol SHA-256", run.protocol().sha256()));
         }
         rows.add(Map.entry("Software", "Accordia " + info.version()));
