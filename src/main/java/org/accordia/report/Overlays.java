@@ -219,7 +219,7 @@ public final class Overlays {
             g.setFont(TEXT);
             g.setColor(Palette.INK);
             String[] lines = {
-                edges != null ? "Array order, no flip; letters: anatomical directions (R/L, A/P, S/I) from the affine."
+                edges != null ? "Array order (no flip); edge letters: directions from the affine."
                     : "Image x to the right, image y downwards (array order, no anatomical flip).",
                 String.format(Locale.ROOT, "Pixel %s \u00D7 %s mm. Lines follow the edges between voxels.",
                     Numbers.format(sx), Numbers.format(sy)),
