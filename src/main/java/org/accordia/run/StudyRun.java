@@ -139,6 +139,17 @@ public final class StudyRun {
      */
     public static Outcome analyze(PreparedStudy p, Path out, boolean force, int threads, String version,
             Listener listener) throws InputException, IOException {
+        return analyze(p, out, force, threads, version, null, listener);
+    }
+
+    /**
+     * As {@link #analyze(PreparedStudy, Path, boolean, int, String, Listener)}, and the report's
+     * "Run" section names the start time (UTC), {@code commandLine}, the study folder and the
+     * protocol file with its SHA-256 ({@code commandLine} null: no such section details).
+     */
+    public static Outcome analyze(PreparedStudy p, Path out, boolean force, int threads, String version,
+            String commandLine, Listener listener) throws InputException, IOException {
+        String started = AnalysisReport.Run.utc(java.time.Instant.now());
         requireAnalysable(p);
         CaseSource source = p.caseSource();
         List<Path> inputs = p.inputFiles(source);
@@ -151,6 +162,9 @@ public final class StudyRun {
         }
         // checksums before anything is written: they name the bytes the report was made from
         List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, p.study().root());
+        AnalysisReport.Run run = commandLine == null ? null : new AnalysisReport.Run(started, commandLine,
+            p.study().root().toAbsolutePath().normalize().toString(),
+            p.protocolSource().file() == null ? null : checksums.get(checksums.size() - 1));
         OutputFolder folder = OutputFolder.prepare(out, force);
         try {
             ConsensusFiles consensus = new ConsensusFiles(folder, AnalysisReport.PICTURES);
@@ -159,7 +173,7 @@ public final class StudyRun {
             listener.casesDone();
             AnalysisReport.write(folder, result, consensus.pictures(), source,
                 new AnalysisReport.RunInfo(version, checksums, p.protocolSource().words(),
-                    p.protocolSource().info(p.study().root())), threads);
+                    p.protocolSource().info(p.study().root())).withRun(run), threads);
             return new Outcome(result, folder.dir());
         } catch (Exception | Error e) {
             // stop at the first bad input and leave nothing of this run behind (no half set of outputs)
