@@ -144,8 +144,10 @@ class HtmlReportTest {
     void structureTablesFiguresAndFooter() throws Exception {
         Document doc = Jsoup.parse(sample().toHtml());
         assertEquals(2, doc.select("main > section").size());
-        assertEquals(List.of("Decisions", "Readers " + HOSTILE), doc.select("nav.contents a").eachText());
+        // the footer's cautions are listed in the contents too, and the link leads to them
+        assertEquals(List.of("Decisions", "Readers " + HOSTILE, "Cautions"), doc.select("nav.contents a").eachText());
         assertEquals("#s2", doc.select("nav.contents a").get(1).attr("href"));
+        assertEquals("Cautions", doc.select(doc.select("nav.contents a").get(2).attr("href")).text());
         assertEquals(1, doc.select("#s2").size());
         Element numeric = doc.select("table").first();
         assertEquals(List.of("dice"), numeric.select("th.num").eachText());
