@@ -45,11 +45,13 @@ import org.accordia.shift.ReaderCaseMeasure;
 import org.accordia.shift.ReaderMeasure;
 import org.accordia.shift.ShiftAnalysis;
 import org.accordia.shift.ShiftSettings;
+import org.accordia.study.Analysability;
 import org.accordia.study.CaseReader;
 import org.accordia.study.LoadedCase;
 import org.accordia.study.Protocol;
 import org.accordia.study.ReaderId;
 import org.accordia.study.Structure;
+import org.accordia.study.StudyProblem;
 
 /**
  * One study from its cases to its decision: the library pipeline behind {@code accordia analyze},
@@ -82,22 +84,9 @@ public final class StudyAnalysis {
     private StudyAnalysis() {
     }
 
-    /**
-     * The shift settings a protocol implies. Resampling sizes follow the protocol's
-     * {@code consensus.bootstrap_resamples} (B, default 2000): B case-bootstrap resamples for the
-     * centre and reader effects, and B/10 (at most the documented defaults 200 and 199) parametric
-     * bootstrap resamples for the variance-component intervals and the test of σ²_centre = 0.
-     */
+    /** The shift settings a protocol implies ({@link AnalysisSettings#shiftSettings}). */
     public static ShiftSettings shiftSettings(Protocol p) {
-        Protocol.Shift s = p.shift();
-        Protocol.Review r = p.review();
-        return new ShiftSettings(s.alpha(), s.minimumShiftMm(), s.minimumVolumeShiftPercent(), r.adjudicationDice(),
-            r.adjudicationHd95Mm(), r.adjudicationShareForReview(), r.recalibrationToleranceMm(),
-            r.recalibrationVolumePercent(), s.permutations(), ShiftSettings.DEFAULT_EXACT_LIMIT,
-            p.consensus().bootstrapResamples(),
-            Math.min(ShiftSettings.DEFAULT_VARIANCE_RESAMPLES, p.consensus().bootstrapResamples() / 10),
-            Math.min(ShiftSettings.DEFAULT_CENTRE_TEST_RESAMPLES, p.consensus().bootstrapResamples() / 10 - 1),
-            p.seed());
+        return AnalysisSettings.shiftSettings(p);
     }
 
     /** As {@link #run(CaseSource, Protocol, AnalysisOptions, CaseSink, Runnable)} without a sink. */
@@ -130,34 +119,45 @@ public final class StudyAnalysis {
             : scanLabels(source, options.threads());
         List<Structure> structures = protocol.structuresFor(labelValues);
         if (structures.isEmpty()) {
-            throw new InputException(source.inputFiles().isEmpty() ? null : source.inputFiles().get(0),
-                "no mask holds any foreground label, so there is no structure to analyse");
+            refuse(Analysability.noStructureVoxels(structures, s -> false, source.where()));
         }
         boolean multiLabel = labelValues.size() > 1;
         int undecided = multiLabel ? UndecidedLabel.defaultFor(labelValues.stream().mapToInt(Integer::intValue).toArray())
             : -1;
-        Protocol.ConsensusRegion region = protocol.consensus().region();
-        StapleOptions staple = StapleOptions.defaults().withRegion(regionWords(region));
+        AnalysisSettings all = options.shiftSettings() != null
+            ? AnalysisSettings.from(protocol).withShiftSettings(options.shiftSettings()) : AnalysisSettings.from(protocol);
+        AnalysisSettings.Consensus consensus = all.consensus();
         CaseRecord[] records = new CaseRecord[caseIds.size()];
         forEachCase(caseIds, options.threads(), i -> {
             LoadedCase lc = source.load(caseIds.get(i));
-            records[i] = analyseCase(lc, structures, multiLabel, undecided, staple, region, sink);
+            records[i] = analyseCase(lc, structures, multiLabel, undecided, consensus.staple(), consensus.region(),
+                all.agreement().hd95(), sink);
             caseDone.run();
         });
-        ShiftSettings settings = options.shiftSettings() != null ? options.shiftSettings() : shiftSettings(protocol);
         List<CaseRecord> cases = List.of(records);
+        // the analysability rule on what the cases hold: no voxel of any structure in any mask stops the run
+        refuse(Analysability.noStructureVoxels(structures, st -> cases.stream().anyMatch(c -> c.structures().stream()
+            .anyMatch(sc -> sc.structure().equals(st) && sc.agreement().voxelCounts().stream().anyMatch(n -> n > 0))),
+            source.where()));
+        ShiftSettings settings = all.shift().settings();
         TreeSet<ReaderId> readers = new TreeSet<>();
         cases.forEach(c -> readers.addAll(c.readers()));
         Map<ReaderId, String> keys = readerKeys(readers);
         // structures are independent at the study level: one task each, results in protocol order
         LabelResult[] labels = new LabelResult[structures.size()];
         inStudyPool(options.threads(), structures.size(), s -> labels[s] = studyLevel(s, structures.get(s), cases,
-            readers, keys, protocol, settings, options.readerSummaries()));
+            readers, keys, all, options.readerSummaries()));
         TreeSet<String> centres = new TreeSet<>();
         readers.forEach(r -> centres.add(r.centre()));
-        return new StudyResult(protocol.withSeed(settings.seed()), settings, structures, List.copyOf(readers),
+        return new StudyResult(protocol.withSeed(settings.seed()), all, structures, List.copyOf(readers),
             List.copyOf(centres), cases, List.of(labels), events(cases, source.missing()),
-            staple.region(), undecided);
+            consensus.staple().region(), undecided);
+    }
+
+    private static void refuse(StudyProblem p) throws InputException {
+        if (p != null) {
+            throw new InputException(p.file(), p.message());
+        }
     }
 
     // ------------------------------------------------------------------ per case
@@ -264,7 +264,8 @@ public final class StudyAnalysis {
 
     /** One case: agreement, consensus, sink, record. Package-private for tests. */
     static CaseRecord analyseCase(LoadedCase lc, List<Structure> structures, boolean multiLabel, int undecided,
-            StapleOptions staple, Protocol.ConsensusRegion region, CaseSink sink) throws IOException {
+            StapleOptions staple, Protocol.ConsensusRegion region, Protocol.Hd95Mode hd95, CaseSink sink)
+            throws IOException {
         List<ReaderId> readers = lc.readers();
         List<LabelVolume> masks = lc.masks();
         List<String> names = readers.stream().map(ReaderId::reader).toList();
@@ -279,7 +280,7 @@ public final class StudyAnalysis {
         CaseAgreement[] bySlot = new CaseAgreement[structures.size()];
         for (var e : byTolerance.entrySet()) {
             List<Structure> group = e.getValue().stream().map(structures::get).toList();
-            List<CaseAgreement> got = new CaseAgreementEngine(e.getKey(), e.getKey(), null)
+            List<CaseAgreement> got = new CaseAgreementEngine(e.getKey(), e.getKey(), hd95, null)
                 .evaluate(lc.caseId(), readers, masks, group);
             for (int k = 0; k < got.size(); k++) {
                 bySlot[e.getValue().get(k)] = got.get(k);
@@ -336,13 +337,6 @@ public final class StudyAnalysis {
         return record;
     }
 
-    /** The STAPLE region in words (reported with every specificity). */
-    static String regionWords(Protocol.ConsensusRegion region) {
-        return region == Protocol.ConsensusRegion.UNION_MARGIN
-            ? "union of all readers' structure grown by the structure's tolerance"
-            : StapleOptions.WHOLE_GRID;
-    }
-
     /**
      * The histogram restricted to the union of all readers' structure grown by the structure's
      * tolerance (the kappa region of the agreement step): every voxel outside the union has
@@ -393,7 +387,9 @@ public final class StudyAnalysis {
     }
 
     private static LabelResult studyLevel(int s, Structure st, List<CaseRecord> cases, TreeSet<ReaderId> readers,
-            Map<ReaderId, String> keys, Protocol protocol, ShiftSettings settings, boolean summaries) {
+            Map<ReaderId, String> keys, AnalysisSettings all, boolean summaries) {
+        ShiftSettings settings = all.shift().settings();
+        Protocol.ShiftDistance distance = all.shift().distance();
         Map<String, String> readerCentre = new TreeMap<>();
         keys.forEach((r, k) -> readerCentre.put(k, r.centre()));
         List<CaseDistances> distances = new ArrayList<>();
@@ -407,7 +403,7 @@ public final class StudyAnalysis {
             StructureCase sc = c.structures().get(s);
             CaseAgreement ca = sc.agreement();
             List<String> caseKeys = c.readers().stream().map(keys::get).toList();
-            distances.add(new CaseDistances(c.caseId(), caseKeys, distanceMatrix(ca, protocol.shift().distance())));
+            distances.add(new CaseDistances(c.caseId(), caseKeys, distanceMatrix(ca, distance)));
             for (int j = 0; j < c.readers().size(); j++) {
                 ReaderId r = c.readers().get(j);
                 for (ReaderPerformance p : sc.performance()) {
@@ -434,14 +430,14 @@ public final class StudyAnalysis {
             }
         }
         double[][] volumes = volumeRows.size() >= 2 && readers.size() >= 2 ? volumeRows.toArray(new double[0][]) : null;
-        LabelShiftInput input = new LabelShiftInput(s + 1, st.name(), distanceName(protocol.shift().distance()),
+        LabelShiftInput input = new LabelShiftInput(s + 1, st.name(), distanceName(distance),
             readerCentre, distances, centreMeasures, readerMeasures,
             "signed surface distance against the other centres' consensus (mm)", variance, summaries2, volumes);
         LabelShiftReport report = ShiftAnalysis.analyse(input, settings);
         List<String> notes = new ArrayList<>();
         LabelShiftSummary summary = orderFlagged(report, notes, settings);
         List<ReaderSummary> rs = summaries
-            ? ReaderSummary.summarise(allRows, protocol.consensus().bootstrapResamples(), settings.seed() + 7919L * (s + 1))
+            ? ReaderSummary.summarise(allRows, all.consensus().bootstrapResamples(), settings.seed() + 7919L * (s + 1))
             : List.of();
         return new LabelResult(s + 1, st, input, report, summary, notes, rs, missedStructure(cases, s));
     }

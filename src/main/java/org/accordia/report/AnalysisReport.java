@@ -17,6 +17,8 @@ import org.accordia.analysis.StructureCase;
 import org.accordia.analysis.StudyResult;
 import org.accordia.consensus.ReaderPerformance;
 import org.accordia.consensus.ReaderSummary;
+import org.accordia.consensus.StapleOptions;
+import org.accordia.consensus.StapleResult;
 import org.accordia.io.ImageVolume;
 import org.accordia.io.InputException;
 import org.accordia.shift.CaseToAdjudicate;
@@ -52,20 +54,29 @@ public final class AnalysisReport {
      * @param version the tool's version
      * @param inputs checksums of every input file
      * @param protocolSource where the protocol came from, in words (e.g. "protocol.yaml in the study")
+     * @param protocol where the protocol came from, as summary.json records it
+     * @param run the details of the run for the report's Run section, or {@code null}
      */
-    public record RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource, Run run) {
+    public record RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource,
+                          SummaryJson.ProtocolInfo protocol, Run run) {
         public RunInfo {
             inputs = List.copyOf(inputs);
         }
 
-        /** Without the details of the run (a run made in memory, e.g. a benchmark). */
+        /** A run whose protocol was supplied by the calling program (no details of the run). */
         public RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource) {
-            this(version, inputs, protocolSource, null);
+            this(version, inputs, protocolSource, new SummaryJson.ProtocolInfo("supplied", null));
         }
 
-        /** The same, with the details of the run. */
+        /** Without the details of the run (a run made in memory, e.g. a benchmark). */
+        public RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource,
+                       SummaryJson.ProtocolInfo protocol) {
+            this(version, inputs, protocolSource, protocol, null);
+        }
+
+        /** The same, with the details of the run (shown in the report's Run section). */
         public RunInfo withRun(Run details) {
-            return new RunInfo(version, inputs, protocolSource, details);
+            return new RunInfo(version, inputs, protocolSource, protocol, details);
         }
     }
 
@@ -75,7 +86,8 @@ public final class AnalysisReport {
      *
      * @param startedUtc when the run started, ISO-8601 in UTC (e.g. {@code 2026-12-02T15:31:13Z})
      * @param commandLine the command as typed, e.g. {@code accordia analyze demo-masks --out r}
-     *     ({@link #commandLine(String, List)} from the program name and all its arguments)
+     *     ({@link #commandLine(String, List)} from the program name and all its arguments), or
+     *     {@code null} when the analysis was started by a program
      * @param inputRoot the study folder (absolute)
      * @param protocol the protocol file as listed among the inputs with its SHA-256, or {@code null}
      *     when the built-in defaults were used
@@ -144,7 +156,7 @@ public final class AnalysisReport {
         out.writeAtomically("cases.csv", Tables.cases(r)::write);
         out.writeAtomically("reader_summary.csv", Tables.readerSummary(r)::write);
         out.writeAtomically("events.csv", Tables.events(r)::write);
-        out.writeAtomically(OutputFolder.SUMMARY_JSON, o -> JsonOutput.write(SummaryJson.of(r, info.version(), info.inputs()), o));
+        out.writeAtomically(OutputFolder.SUMMARY_JSON, o -> JsonOutput.write(SummaryJson.of(r, info.version(), info.protocol(), info.inputs()), o));
     }
 
     /** The HTML report. */
@@ -585,6 +597,17 @@ public final class AnalysisReport {
 
     // ------------------------------------------------------------------ methods
 
+    /** The STAPLE prior and convergence rule in words, from the options the run used. */
+    static String stapleWords(StapleOptions o) {
+        String prior = o.priorIsFixed() ? "fixed at " + Numbers.format(o.fixedPrior())
+            : "the mean foreground fraction over readers and voxels of the region";
+        int exponent = (int) Math.round(Math.log10(o.tolerance()));
+        String tolerance = o.tolerance() > 0 && Math.pow(10, exponent) == o.tolerance() ? "1e" + exponent
+            : Numbers.format(o.tolerance());
+        return "prior = " + prior + "; converged when no parameter changes by more than " + tolerance + " (at most "
+            + String.format(Locale.ROOT, "%,d", o.maxIterations()) + " iterations)";
+    }
+
     private static void methods(HtmlReport h, StudyResult r, RunInfo info) {
         ShiftSettings s = r.shiftSettings();
         h.section("Methods");
@@ -599,7 +622,7 @@ public final class AnalysisReport {
             + "in mm, between voxel centres, with the voxel spacing, from an exact distance transform "
             + "(Felzenszwalb & Huttenlocher 2012). HD is the largest directed distance; HD95 the larger of the "
             + "two directed 95th percentiles (linear interpolation between order statistics, Hyndman & Fan type 7)"
-            + (r.protocol().agreement().hd95() == org.accordia.study.Protocol.Hd95Mode.POOLED
+            + (r.settings().agreement().hd95() == org.accordia.study.Protocol.Hd95Mode.POOLED
                 ? "; this run uses the pooled variant, the 95th percentile of both directed sets together" : "")
             + "; ASSD the mean of both directed sets; NSD the share of border voxels within τ of the other border "
             + "(Nikolov et al. 2021), τ per structure. Signed surface distance: mean over a reader's border "
@@ -607,9 +630,10 @@ public final class AnalysisReport {
         h.paragraph("Fleiss' kappa (Fleiss 1971) over the union of all readers' structure grown by τ, so that the "
             + "background far from the structure does not inflate it.");
         h.paragraph("Consensus. Binary STAPLE (Warfield, Zou & Wells 2004) per structure on the decision-pattern "
-            + "histogram: W starts as the fraction of readers marking the voxel and the M-step runs first; prior = "
-            + "the mean foreground fraction over readers and voxels of the region; converged when no parameter changes by more than 1e-10 (at most 10,000 iterations); region: "
-            + r.stapleRegion() + "; consensus = voxels with W ≥ 0.5. References per reader: all readers; "
+            + "histogram: W starts as the fraction of readers marking the voxel and the M-step runs first; "
+            + stapleWords(r.settings().consensus().staple()) + "; region: "
+            + r.stapleRegion() + "; consensus = voxels with W ≥ " + Numbers.format(StapleResult.CONSENSUS_THRESHOLD)
+            + ". References per reader: all readers; "
             + "all other readers (leave-one-reader-out); readers of the other centres (leave-one-centre-out, used "
             + "for centre effects). Multi-label STAPLE (Warfield et al. 2004; Rohlfing et al. 2004) for the label "
             + "masks" + (r.multiLabelUndecided() >= 0 ? "; voxels it cannot decide (exact ties) carry the value "
@@ -634,7 +658,7 @@ public final class AnalysisReport {
         h.subsection("Settings used");
         h.paragraph("Protocol: " + info.protocolSource() + ".");
         List<Map.Entry<String, String>> settings = new ArrayList<>();
-        SummaryJson.settings(r.protocol(), s).forEach((k, v) -> settings.add(Map.entry(k,
+        SummaryJson.settings(r.settings()).forEach((k, v) -> settings.add(Map.entry(k,
             v instanceof Double d ? Numbers.format(d) : String.valueOf(v))));
         settings.add(Map.entry("structures", String.join("; ", r.structures().stream()
             .map(x -> x.name() + " = labels " + x.labels() + ", τ " + Numbers.format(x.toleranceMm()) + " mm").toList())));
@@ -665,7 +689,9 @@ public final class AnalysisReport {
         Run run = info.run();
         if (run != null) {
             rows.add(Map.entry("Started (UTC)", run.startedUtc()));
-            rows.add(Map.entry("Command", run.commandLine()));
+            if (run.commandLine() != null) {
+                rows.add(Map.entry("Command", run.commandLine()));
+            }
             rows.add(Map.entry("Study folder", run.inputRoot()));
         }
         rows.add(Map.entry("Protocol", info.protocolSource()));
