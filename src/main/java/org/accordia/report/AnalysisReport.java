@@ -613,7 +613,7 @@ public final class AnalysisReport {
         h.section("Methods");
         h.paragraph("How every number above was computed (overlap, surfaces, consensus, centre differences, "
             + "the decision rules), the settings used and the references.");
-        h.details("Methods, settings and references (click to open; open it before printing)");
+        h.details("Methods, settings and references (click to open)");
         h.paragraph("Overlap. Dice = 2|A∩B| / (|A|+|B|) (Dice 1945); Jaccard = |A∩B| / |A∪B| (Jaccard 1912); "
             + "volumes in ml from voxel counts and the voxel spacing. Two empty masks: Dice 1, distances undefined; "
             + "one empty: Dice 0, distances undefined (both flagged).");
