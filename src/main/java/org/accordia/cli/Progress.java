@@ -22,7 +22,9 @@ import me.tongfei.progressbar.ProgressBarStyle;
  * </ul>
  * When the last case is done the case count is complete and the study-level stage is named
  * ({@value #STUDY_STAGE}), which can take a while on a large study; {@link #close()} then says how
- * long that stage took and that the report is being written.
+ * long that stage took and that the report is being written. In plain-line mode this happens only
+ * when the cases took at least {@value #PLAIN_INTERVAL_SECONDS} s (a run long enough to show
+ * progress lines at all); a quicker run ends with its one last line, as before.
  * {@link #step()} may be called from any thread; {@link #close()} once when the cases are done
  * (further calls do nothing).
  */
@@ -88,8 +90,9 @@ public final class Progress implements AutoCloseable {
         }
         done++;
         long now = clockNanos.getAsLong();
-        if (done == total) {
-            // the case count is complete: say so, then name the stage that follows
+        if (done == total && (bar != null || now - startNanos >= PLAIN_INTERVAL_SECONDS * 1_000_000_000L)) {
+            // the case count is complete: say so, then name the stage that follows (plain lines only
+            // on a run long enough for progress lines, so a quick run that fails still prints one line)
             if (bar != null) {
                 bar.step();
                 bar.close();

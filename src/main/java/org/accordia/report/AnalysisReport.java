@@ -55,7 +55,7 @@ public final class AnalysisReport {
      * @param inputs checksums of every input file
      * @param protocolSource where the protocol came from, in words (e.g. "protocol.yaml in the study")
      * @param protocol where the protocol came from, as summary.json records it
-     * @param run how the report was made (time, command, study folder), or {@code null} for a run in memory
+     * @param run the details of the run for the report's Run section, or {@code null}
      */
     public record RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource,
                           SummaryJson.ProtocolInfo protocol, Run run) {
@@ -63,18 +63,18 @@ public final class AnalysisReport {
             inputs = List.copyOf(inputs);
         }
 
-        /** A run whose protocol was supplied by the calling program, without the details of the run. */
+        /** A run whose protocol was supplied by the calling program (no details of the run). */
         public RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource) {
-            this(version, inputs, protocolSource, new SummaryJson.ProtocolInfo("supplied", null), null);
+            this(version, inputs, protocolSource, new SummaryJson.ProtocolInfo("supplied", null));
         }
 
-        /** With the protocol's origin as summary.json records it, without the details of the run. */
+        /** Without the details of the run (a run made in memory, e.g. a benchmark). */
         public RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource,
                        SummaryJson.ProtocolInfo protocol) {
             this(version, inputs, protocolSource, protocol, null);
         }
 
-        /** The same, with the details of the run. */
+        /** The same, with the details of the run (shown in the report's Run section). */
         public RunInfo withRun(Run details) {
             return new RunInfo(version, inputs, protocolSource, protocol, details);
         }
@@ -86,7 +86,8 @@ public final class AnalysisReport {
      *
      * @param startedUtc when the run started, ISO-8601 in UTC (e.g. {@code 2026-12-02T15:31:13Z})
      * @param commandLine the command as typed, e.g. {@code accordia analyze demo-masks --out r}
-     *     ({@link #commandLine(String, List)} from the program name and all its arguments)
+     *     ({@link #commandLine(String, List)} from the program name and all its arguments), or
+     *     {@code null} when the analysis was started by a program
      * @param inputRoot the study folder (absolute)
      * @param protocol the protocol file as listed among the inputs with its SHA-256, or {@code null}
      *     when the built-in defaults were used
@@ -612,7 +613,7 @@ public final class AnalysisReport {
         h.section("Methods");
         h.paragraph("How every number above was computed (overlap, surfaces, consensus, centre differences, "
             + "the decision rules), the settings used and the references.");
-        h.details("Methods, settings and references (click to open; open it before printing)");
+        h.details("Methods, settings and references (click to open)");
         h.paragraph("Overlap. Dice = 2|A∩B| / (|A|+|B|) (Dice 1945); Jaccard = |A∩B| / |A∪B| (Jaccard 1912); "
             + "volumes in ml from voxel counts and the voxel spacing. Two empty masks: Dice 1, distances undefined; "
             + "one empty: Dice 0, distances undefined (both flagged).");
@@ -688,7 +689,9 @@ public final class AnalysisReport {
         Run run = info.run();
         if (run != null) {
             rows.add(Map.entry("Started (UTC)", run.startedUtc()));
-            rows.add(Map.entry("Command", run.commandLine()));
+            if (run.commandLine() != null) {
+                rows.add(Map.entry("Command", run.commandLine()));
+            }
             rows.add(Map.entry("Study folder", run.inputRoot()));
         }
         rows.add(Map.entry("Protocol", info.protocolSource()));

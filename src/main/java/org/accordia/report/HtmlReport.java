@@ -120,6 +120,7 @@ public final class HtmlReport {
         nav.contents{display:none}
         .table-wrap{overflow:visible}
         details{border:0;padding:0}
+        details::details-content{content-visibility:visible;display:block}
         h2,h3{break-after:avoid;page-break-after:avoid}
         figure,.callout,tr,pre,dl{break-inside:avoid;page-break-inside:avoid}
         .callout,thead th,tbody tr:nth-child(even),pre{-webkit-print-color-adjust:exact;print-color-adjust:exact}
@@ -315,8 +316,9 @@ public final class HtmlReport {
 
     /**
      * Opens a collapsed block with a one-line summary that the reader clicks to open (HTML
-     * {@code details}); everything added until {@link #endDetails()} is inside it. Closed blocks do
-     * not print: the summary should say what is inside.
+     * {@code details}); everything added until {@link #endDetails()} is inside it. Printed open by
+     * browsers that support {@code ::details-content} (Chromium 131 and later); elsewhere a closed
+     * block does not print, so the summary should say what is inside.
      */
     public HtmlReport details(String summary) {
         body.append("<details><summary>").append(escape(summary)).append("</summary>\n");

@@ -143,9 +143,9 @@ public final class StudyRun {
     }
 
     /**
-     * As {@link #analyze(PreparedStudy, Path, boolean, int, String, Listener)}, and the report's
-     * "Run" section names the start time (UTC), {@code commandLine}, the study folder and the
-     * protocol file with its SHA-256 ({@code commandLine} null: no such section details).
+     * As {@link #analyze(PreparedStudy, Path, boolean, int, String, Listener)}, with the command line
+     * that started the run ({@code null} when a program did), shown in the report's Run section
+     * with the start time, the study folder and the protocol file's SHA-256.
      */
     public static Outcome analyze(PreparedStudy p, Path out, boolean force, int threads, String version,
             String commandLine, Listener listener) throws InputException, IOException {
@@ -162,15 +162,15 @@ public final class StudyRun {
         }
         // checksums before anything is written: they name the bytes the report was made from
         List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, p.study().root());
-        AnalysisReport.Run run = commandLine == null ? null : new AnalysisReport.Run(started, commandLine,
-            p.study().root().toAbsolutePath().normalize().toString(),
-            p.protocolSource().file() == null ? null : checksums.get(checksums.size() - 1));
         OutputFolder folder = OutputFolder.prepare(out, force);
         try {
             ConsensusFiles consensus = new ConsensusFiles(folder, AnalysisReport.PICTURES);
             StudyResult result = StudyAnalysis.run(source, p.protocol(), AnalysisOptions.defaults().withThreads(threads),
                 consensus, listener::caseDone);
             listener.casesDone();
+            AnalysisReport.Run run = new AnalysisReport.Run(started, commandLine,
+                p.study().root().toAbsolutePath().normalize().toString(),
+                p.protocolSource().file() != null ? checksums.get(checksums.size() - 1) : null);
             AnalysisReport.write(folder, result, consensus.pictures(), source,
                 new AnalysisReport.RunInfo(version, checksums, p.protocolSource().words(),
                     p.protocolSource().info(p.study().root())).withRun(run), threads);

@@ -66,6 +66,28 @@ class ProgressTest {
     }
 
     @Test
+    void aQuickRunNamesNoStageAndAFailedOnePrintsNothing() {
+        ByteArrayOutputStream buf = new ByteArrayOutputStream();
+        PrintStream err = new PrintStream(buf, true, StandardCharsets.UTF_8);
+        AtomicLong clock = new AtomicLong(1000 * S);
+        Progress p = Progress.create(2, false, err, false, clock::get);
+        clock.addAndGet(S / 4);
+        p.step();
+        clock.addAndGet(S / 4);
+        p.step();                 // all cases in 0.5 s: no line yet
+        assertEquals("", buf.toString(StandardCharsets.UTF_8));
+        p.abandon();              // the study-level statistics fail: the error's line stays the only one
+        p.close();
+        assertEquals("", buf.toString(StandardCharsets.UTF_8));
+
+        Progress q = Progress.create(2, false, err, false, clock::get);
+        q.step();
+        q.step();
+        q.close();
+        assertEquals(List.of("accordia: 2/2 cases done"), buf.toString(StandardCharsets.UTF_8).lines().toList());
+    }
+
+    @Test
     void quietPrintsNothing() {
         ByteArrayOutputStream buf = new ByteArrayOutputStream();
         PrintStream err = new PrintStream(buf, true, StandardCharsets.UTF_8);
