@@ -293,7 +293,9 @@ public final class StudyAnalysis {
             if (c.readers().size() == readers.size()) {
                 volumeRows.add(ca.volumesMl().stream().mapToDouble(Double::doubleValue).toArray());
             }
-            allRows.addAll(sc.performance());
+            if (!sc.absent()) { // a case where no reader drew the structure says nothing about a reader
+                allRows.addAll(sc.performance());
+            }
         }
         double[][] volumes = volumeRows.size() >= 2 && readers.size() >= 2 ? volumeRows.toArray(new double[0][]) : null;
         LabelShiftInput input = new LabelShiftInput(s + 1, st.name(), distanceName(distance),

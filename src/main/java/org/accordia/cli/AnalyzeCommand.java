@@ -11,6 +11,7 @@ import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.accordia.analysis.LabelResult;
 import org.accordia.analysis.StudyResult;
+import org.accordia.report.AnalysisReport;
 import org.accordia.report.OutputFolder;
 import org.accordia.run.PreparedStudy;
 import org.accordia.run.StudyRun;
@@ -27,11 +28,12 @@ import picocli.CommandLine.Parameters;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
-        "Analyses a study: agreement of every reader pair, STAPLE consensus with each reader's",
-        "performance, the split of disagreement within and between centres with a permutation test,",
-        "and a decision per structure (pool / review / re-annotate). Writes report.html, pairs.csv,",
-        "readers.csv, centres.csv, cases.csv, reader_summary.csv, events.csv, summary.json and the",
-        "consensus masks (consensus/) into the output folder (docs/outputs.md). Inputs are never written."
+        "Analyses a study and decides per structure: pool, review or re-annotate.",
+        "Measures the agreement of every reader pair, estimates the STAPLE consensus with each reader's "
+            + "performance, and splits the disagreement within and between centres with a permutation test.",
+        "Writes report.html, pairs.csv, readers.csv, centres.csv, cases.csv, reader_summary.csv, "
+            + "events.csv, summary.json and the consensus masks (consensus/) into the output folder "
+            + "(docs/outputs.md). Inputs are never written."
     },
     exitCodeListHeading = "%nExit codes:%n",
     exitCodeList = {
@@ -108,6 +110,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
              Progress progress = Progress.create(prepared.study().cases().size(), quiet, progressStream)) {
             try {
                 outcome = StudyRun.analyze(prepared, out, force, threads, VersionProvider.version(),
+                    AnalysisReport.Run.commandLine("accordia", spec.commandLine().getParseResult().originalArgs()),
                     new StudyRun.Listener() {
                         @Override
                         public void caseDone() {

@@ -28,10 +28,10 @@ import picocli.CommandLine.Parameters;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
-        "Checks a study without analysing it: lists centres, readers, cases, the labels seen, each",
-        "case's grid, the missing masks and every problem found. Exit 0 when the study can be",
-        "analysed, 2 when it cannot (no case, fewer than two readers, an unreadable mask, a grid",
-        "mismatch within a case). Nothing is written."
+        "Checks a study without analysing it; nothing is written.",
+        "Lists centres, readers, cases, the labels seen, each case's grid, the missing masks and every "
+            + "problem found. Exit 0 when the study can be analysed, 2 when it cannot (no case, fewer than "
+            + "two readers, an unreadable mask, a grid mismatch within a case)."
     },
     exitCodeListHeading = "%nExit codes:%n",
     exitCodeList = {

@@ -130,10 +130,11 @@ public record SummaryJson(
                 s.rule(), s.reasons(), l.centreNotes(), s.casesToAdjudicate(), s.readersToRecalibrate(), missed));
         }
         Map<String, Integer> events = new TreeMap<>();
-        for (String k : List.of(FlaggedEvent.MISSING_MASK, FlaggedEvent.EMPTY_MASK, FlaggedEvent.UNDEFINED_DISTANCES)) {
+        for (String k : List.of(FlaggedEvent.MISSING_MASK, FlaggedEvent.EMPTY_MASK, FlaggedEvent.UNDEFINED_DISTANCES,
+                FlaggedEvent.ABSENT)) {
             events.put(k, 0);
         }
-        r.events().forEach(e -> events.merge(e.kind(), 1, Integer::sum));
+        Absence.events(r).forEach(e -> events.merge(e.kind(), 1, Integer::sum));
         return new SummaryJson("Accordia", version,
             new StudyInfo(r.protocol().study(), r.cases().size(), r.readers().size(), r.centres()),
             settings(r.settings()), protocol, r.stapleRegion(),

@@ -139,6 +139,17 @@ public final class StudyRun {
      */
     public static Outcome analyze(PreparedStudy p, Path out, boolean force, int threads, String version,
             Listener listener) throws InputException, IOException {
+        return analyze(p, out, force, threads, version, null, listener);
+    }
+
+    /**
+     * As {@link #analyze(PreparedStudy, Path, boolean, int, String, Listener)}, with the command line
+     * that started the run ({@code null} when a program did), shown in the report's Run section
+     * with the start time, the study folder and the protocol file's SHA-256.
+     */
+    public static Outcome analyze(PreparedStudy p, Path out, boolean force, int threads, String version,
+            String commandLine, Listener listener) throws InputException, IOException {
+        String started = AnalysisReport.Run.utc(java.time.Instant.now());
         requireAnalysable(p);
         CaseSource source = p.caseSource();
         List<Path> inputs = p.inputFiles(source);
@@ -157,9 +168,12 @@ public final class StudyRun {
             StudyResult result = StudyAnalysis.run(source, p.protocol(), AnalysisOptions.defaults().withThreads(threads),
                 consensus, listener::caseDone);
             listener.casesDone();
+            AnalysisReport.Run run = new AnalysisReport.Run(started, commandLine,
+                p.study().root().toAbsolutePath().normalize().toString(),
+                p.protocolSource().file() != null ? checksums.get(checksums.size() - 1) : null);
             AnalysisReport.write(folder, result, consensus.pictures(),
                 new AnalysisReport.RunInfo(version, checksums, p.protocolSource().words(),
-                    p.protocolSource().info(p.study().root())), threads);
+                    p.protocolSource().info(p.study().root())).withRun(run), threads);
             return new Outcome(result, folder.dir());
         } catch (Exception | Error e) {
             // stop at the first bad input and leave nothing of this run behind (no half set of outputs)
