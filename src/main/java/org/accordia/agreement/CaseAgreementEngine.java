@@ -1,5 +1,6 @@
 package org.accordia.agreement;
 
+import org.accordia.stats.Quantiles;
 import java.lang.invoke.MethodHandles;
 import java.lang.invoke.VarHandle;
 import java.nio.ByteOrder;
@@ -12,7 +13,7 @@ import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.CompletionException;
 import java.util.concurrent.Executor;
 import java.util.concurrent.atomic.AtomicInteger;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.accordia.io.Geometry;
 import org.accordia.io.LabelVolume;
 import org.accordia.study.Protocol;

@@ -17,7 +17,7 @@ import org.accordia.study.Structure;
  *     other_centres; readers in case order within each)
  * @param maxHd95Mm largest pairwise HD95 over pairs with defined distances, mm; NaN when none
  * @param missedParts per reader (case order), the majority-consensus components the reader does
- *     not touch at all ({@link MissedComponents})
+ *     not touch at all ({@link org.accordia.consensus.MissedComponents})
  * @param missedPartsMl per reader, the volume of those components, ml
  */
 public record StructureCase(Structure structure, CaseAgreement agreement, List<ReaderPerformance> performance,

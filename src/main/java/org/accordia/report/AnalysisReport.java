@@ -8,7 +8,6 @@ import java.util.Locale;
 import java.util.Map;
 import org.accordia.agreement.PairMetrics;
 import org.accordia.analysis.CaseRecord;
-import org.accordia.analysis.CaseSource;
 import org.accordia.analysis.FlaggedEvent;
 import org.accordia.analysis.InputChecksums;
 import org.accordia.analysis.LabelResult;
@@ -19,8 +18,6 @@ import org.accordia.consensus.ReaderPerformance;
 import org.accordia.consensus.ReaderSummary;
 import org.accordia.consensus.StapleOptions;
 import org.accordia.consensus.StapleResult;
-import org.accordia.io.ImageVolume;
-import org.accordia.io.InputException;
 import org.accordia.shift.CaseToAdjudicate;
 import org.accordia.shift.GroupEffect;
 import org.accordia.shift.ReaderToRecalibrate;
@@ -109,21 +106,21 @@ public final class AnalysisReport {
     }
 
     /** Writes the tables, summary.json and report.html. */
-    public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source,
-            RunInfo info) throws IOException, InputException {
-        write(out, r, pictures, source, info, 1);
+    public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures,
+            RunInfo info) throws IOException {
+        write(out, r, pictures, info, 1);
     }
 
     /**
-     * As {@link #write(OutputFolder, StudyResult, List, CaseSource, RunInfo)}; with {@code threads}
+     * As {@link #write(OutputFolder, StudyResult, List, RunInfo)}; with {@code threads}
      * ≥ 2 the HTML report (charts, pictures) is made on a second thread while this one writes the
      * tables and the summary. The files are the same either way.
      */
-    public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source,
-            RunInfo info, int threads) throws IOException, InputException {
+    public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures,
+            RunInfo info, int threads) throws IOException {
         if (threads < 2) {
             writeTables(out, r, info);
-            out.writeString(OutputFolder.REPORT_HTML, html(r, pictures, source, info));
+            out.writeString(OutputFolder.REPORT_HTML, html(r, pictures, info));
             return;
         }
         java.util.concurrent.ExecutorService helper = java.util.concurrent.Executors.newSingleThreadExecutor(t -> {
@@ -132,7 +129,7 @@ public final class AnalysisReport {
             return th;
         });
         try {
-            java.util.concurrent.Future<String> html = helper.submit(() -> html(r, pictures, source, info));
+            java.util.concurrent.Future<String> html = helper.submit(() -> html(r, pictures, info));
             writeTables(out, r, info);
             String page = null;
             try {
@@ -141,7 +138,7 @@ public final class AnalysisReport {
                 Thread.currentThread().interrupt();
                 throw new IllegalStateException("report interrupted", e);
             } catch (java.util.concurrent.ExecutionException e) {
-                org.accordia.analysis.Failures.rethrow(e.getCause());
+                org.accordia.analysis.Failures.rethrowUnchecked(e.getCause());
             }
             out.writeString(OutputFolder.REPORT_HTML, page);
         } finally {
@@ -160,8 +157,7 @@ public final class AnalysisReport {
     }
 
     /** The HTML report. */
-    public static String html(StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source, RunInfo info)
-            throws InputException {
+    public static String html(StudyResult r, List<ConsensusFiles.Picture> pictures, RunInfo info) {
         String study = r.protocol().study() == null ? "Study" : r.protocol().study();
         HtmlReport h = new HtmlReport(study + ": agreement, consensus and annotation shift")
             .subtitle(String.format(Locale.ROOT, "%d cases · %d readers · %d centres · %d structure%s (%s)",
@@ -172,7 +168,7 @@ public final class AnalysisReport {
         decision(h, r);
         nextSteps(h, r);
         charts(h, r);
-        pictures(h, r, pictures, source);
+        pictures(h, r, pictures);
         events(h, r);
         methods(h, r, info);
         run(h, info);
@@ -505,8 +501,7 @@ public final class AnalysisReport {
 
     // ------------------------------------------------------------------ pictures
 
-    private static void pictures(HtmlReport h, StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source)
-            throws InputException {
+    private static void pictures(HtmlReport h, StudyResult r, List<ConsensusFiles.Picture> pictures) {
         h.section("The most contentious cases");
         if (pictures.isEmpty()) {
             h.paragraph("No picture: no case has two readers with a non-empty mask.");
@@ -525,16 +520,8 @@ public final class AnalysisReport {
             }
             var g = p.geometry();
             var box = p.box();
-            float[] background = p.probability();
-            String over = "the STAPLE probability map";
-            ImageVolume image = source.image(p.caseId(), g);
-            if (image != null) {
-                background = new float[box.size()];
-                for (int i = 0; i < background.length; i++) {
-                    background[i] = image.data()[box.gridIndex(i, g.nx(), g.ny())];
-                }
-                over = "the case's image";
-            }
+            float[] background = p.image() != null ? p.image() : p.probability();
+            String over = p.image() != null ? "the case's image" : "the STAPLE probability map";
             List<Overlays.Contour> contours = new ArrayList<>();
             for (int j = 0; j < p.readers().size(); j++) {
                 contours.add(new Overlays.Contour(p.readers().get(j).reader(), p.readers().get(j).centre(),

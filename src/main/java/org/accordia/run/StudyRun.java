@@ -171,7 +171,7 @@ public final class StudyRun {
             AnalysisReport.Run run = new AnalysisReport.Run(started, commandLine,
                 p.study().root().toAbsolutePath().normalize().toString(),
                 p.protocolSource().file() != null ? checksums.get(checksums.size() - 1) : null);
-            AnalysisReport.write(folder, result, consensus.pictures(), source,
+            AnalysisReport.write(folder, result, consensus.pictures(),
                 new AnalysisReport.RunInfo(version, checksums, p.protocolSource().words(),
                     p.protocolSource().info(p.study().root())).withRun(run), threads);
             return new Outcome(result, folder.dir());

@@ -110,7 +110,7 @@ public final class StudyLoader {
                 continue;
             }
             if (!dir && name.equals(PROTOCOL)) {
-                continue; // the study's protocol, read by the run (org.accordia.run.StudyRun)
+                continue; // the study's protocol, read by inspect and analyze
             }
             if (!dir) {
                 problems.add(StudyProblem.note(top, "ignored: files at the top of a study folder are not part of the layout"));
