@@ -7,7 +7,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.ArrayList;
 import java.util.List;
-import org.accordia.agreement.Borders;
+import org.accordia.grid.Box;
 import org.accordia.agreement.CaseAgreement;
 import org.accordia.agreement.PairMetrics;
 import org.accordia.agreement.SurfaceMetrics;
@@ -39,7 +39,7 @@ class StructureCaseTest {
             }
         }
         CaseAgreement ca = new CaseAgreement("case", "core", readers, centres, pairs, Double.NaN, 0, 2.0, Double.NaN,
-            Double.NaN, 0, 0, 0, Double.NaN, Double.NaN, volumes, voxels, Borders.Box.EMPTY, 2.0, 0.001, null);
+            Double.NaN, 0, 0, 0, Double.NaN, Double.NaN, volumes, voxels, Box.EMPTY, 2.0, 0.001, null);
         return new StructureCase(new Structure("core", List.of(2), 2.0), ca, List.of(), Double.NaN, List.of(),
             List.of());
     }
