@@ -103,6 +103,13 @@ class HostileCorpusTest {
             new Kind("label-int-max", "r2/case1.nii", "label value 2147483647 is above 65535"),
             new Kind("protocol-huge-resamples", "protocol.yaml", "bootstrap_resamples: must be an integer between 100 and 100000"),
             new Kind("protocol-label-above-65535", "protocol.yaml", "must be an integer between 1 and 65535"),
+            // the study's own protocol.yaml: inspect reads it as analyze does, and both refuse it alike
+            new Kind("study-protocol-bad", "study/protocol.yaml", "shift.alpah: unknown key"),
+            new Kind("study-protocol-folder", "study/protocol.yaml", "protocol file is not a regular file"),
+            // readable masks without a voxel to analyse: inspect says "cannot be analysed", analyze refuses
+            new Kind("every-mask-empty", "study", "no mask holds any foreground label"),
+            new Kind("every-mask-empty-named-structures", "study",
+                "no mask holds a voxel of any structure of the protocol (lesion)"),
             // built here: cannot be committed to git
             new Kind("mask-named-pipe", "r2/case1.nii", "named pipe"),
             new Kind("mask-dangling-link", "r2/case1.nii", "dangling symbolic link"),
@@ -111,7 +118,9 @@ class HostileCorpusTest {
             new Kind("metaimage-data-file-link-to-environ", "r2/case1.mhd", "outside the header's folder through a symbolic link"),
             new Kind("symlink-loop", "r2", "symbolic link loop"),
             new Kind("symlink-outside-root", "r2", "symbolic link leads outside the study root"),
-            new Kind("non-utf8-name", "c1/r", "not valid text in the system encoding"));
+            new Kind("non-utf8-name", "c1/r", "not valid text in the system encoding"),
+            // a named pipe as the study's protocol.yaml: refused before anything opens it (no hang)
+            new Kind("study-protocol-fifo", "study/protocol.yaml", "protocol file is not a regular file"));
     }
 
     /** The committed corpus and the table agree: every folder has a row. */
@@ -220,6 +229,11 @@ class HostileCorpusTest {
                         + "ElementType = MET_UCHAR\nElementDataFile = case1.raw\n");
                     Files.createSymbolicLink(r2.resolve("case1.raw"), Path.of("/proc/self/environ"));
                 }
+            }
+            case "study-protocol-fifo" -> {
+                Files.write(Files.createDirectories(study.resolve("c1/r2")).resolve("case1.nii"), HostileCorpus.goodNifti());
+                Process p = new ProcessBuilder("mkfifo", study.resolve("protocol.yaml").toString()).inheritIO().start();
+                assertEquals(0, p.waitFor(), "creating a named pipe");
             }
             default -> throw new IllegalArgumentException("unknown kind " + kind);
         }
