@@ -73,6 +73,11 @@ final class TiffDirectories {
                     throw new InputException(file, "TIFF declares more than " + bound + " image directories"
                         + (bound == maxDirectories ? " (the voxel limit)" : " (more than the file can hold)"));
                 }
+                if (offset + 2 + 12L * entries > size) {
+                    // ImageJ would read the missing entries as -1 bytes and act on them (a fuzzing finding)
+                    throw new InputException(file, "truncated TIFF: image directory " + n + " at offset " + offset
+                        + " declares " + entries + " entries, the file ends before them");
+                }
                 checkEntries(file, read(ch, offset + 2, 12 * entries).order(head.order()), size, n);
                 ByteBuffer next = read(ch, offset + 2 + 12L * entries, 4).order(head.order());
                 // ImageJ reads past the end of the file as -1 bytes: an offset of 0xFFFFFFFF, beyond

@@ -38,13 +38,21 @@ class EnvironmentErrorsTest {
         }
     }
 
+    /** A usage error: the message on the first line, then where the help is (no stack trace, exit 2). */
+    private static void usageError(Run r, String phrase) {
+        assertEquals(2, r.code(), r.out() + r.err());
+        assertTrue(r.err().lines().findFirst().orElse("").startsWith("accordia: ") && r.err().contains(phrase), r.err());
+        assertFalse(r.err().contains("\tat ") || r.err().contains("Exception"), r.err());
+    }
+
     @Test
     void hugeThreadCountsAreRefusedInEveryCommand() {
-        refused(run("analyze", study.toString(), "--out", tmp.resolve("o1").toString(), "--threads", "100000"),
+        usageError(run("analyze", study.toString(), "--out", tmp.resolve("o1").toString(), "--threads", "100000"),
             "--threads must be between 1 and 256 (got 100000)");
-        refused(run("inspect", study.toString(), "--threads", "100000"), "--threads must be between 1 and 256");
-        refused(run("demo", "--out", tmp.resolve("d").toString(), "--threads", "100000"), "--threads must be between 1 and 256");
+        usageError(run("inspect", study.toString(), "--threads", "100000"), "--threads must be between 1 and 256");
+        usageError(run("demo", "--out", tmp.resolve("d").toString(), "--threads", "100000"), "--threads must be between 1 and 256");
         assertFalse(Files.exists(tmp.resolve("o1")));
+        assertFalse(Files.exists(tmp.resolve("d")));
     }
 
     @Test

@@ -133,8 +133,7 @@ class SpecialFilesTest {
         boolean layoutFolder = special == Special.FOLDER && place == Place.LAYOUT_MASK;
         Run i = run(inspect.toArray(String[]::new));
         assertFalse((i.out() + i.err()).contains("\tat "), i.err());
-        // inspect reads STUDY/protocol.yaml only once it reads what analyze reads (a separate change)
-        if (place != Place.STUDY_PROTOCOL && !layoutFolder) {
+        if (!layoutFolder) {
             assertEquals(2, i.code(), special + " as " + place + " (inspect):\n" + i.out() + i.err());
         }
 
