@@ -171,8 +171,15 @@ public final class HostileCorpus {
                 + "CompressedDataSize = 99999\nElementDataFile = LOCAL\n"), gzip(goodVoxels())));
 
         // ---- TIFF and PNG (read through ImageJ): a directory declaring no height; a PNG cut after its header.
-        c.pair("tiff-zero-dimension", "case1.tif", new byte[] {'I', 'I', 42, 0, 8, 0, 0, 0, 5, 0, 0, 1, 3, 0, 1, 0, 0, 0, 4, 0,
-            -1, -1, -1, -1, -1, -1, -1, -1});
+        // a complete directory (5 entries, no next directory) declaring width 4 and height 0
+        ByteBuffer tiff = ByteBuffer.allocate(8 + 2 + 5 * 12 + 4 + 4).order(ByteOrder.LITTLE_ENDIAN);
+        tiff.put(new byte[] {'I', 'I', 42, 0}).putInt(8).putShort((short) 5);
+        int[][] entries = {{256, 4}, {257, 0}, {258, 8}, {273, 8 + 2 + 5 * 12 + 4}, {279, 4}};
+        for (int[] e : entries) {
+            tiff.putShort((short) e[0]).putShort((short) (e[0] == 273 || e[0] == 279 ? 4 : 3)).putInt(1).putInt(e[1]);
+        }
+        tiff.putInt(0);
+        c.pair("tiff-zero-dimension", "case1.tif", tiff.array());
         c.pair("png-truncated", "case1.png", concat(new byte[] {(byte) 0x89, 'P', 'N', 'G', '\r', '\n', 0x1a, '\n',
             0, 0, 0, 13, 'I', 'H', 'D', 'R', 0, 0, 0, 4, 0, 0, 0, 4, 8, 0, 0, 0, 0}));
 
