@@ -23,11 +23,14 @@ import java.util.Map;
  * departs). With one centre nothing is compared.
  *
  * <p>Other findings, each a reason for review, never a flag: {@link Kind#EVIDENCE_DISAGREES} (the
- * interval lies beyond the minimum but the own test does not reject), {@link Kind#VOLUME_WITHOUT_SURFACE}
- * (the volume interval is beyond the minimum but the surface does not move the same way),
- * {@link Kind#SIZE_UNCERTAIN} (the interval excludes "no shift" and reaches past the minimum without
- * lying beyond it), {@link Kind#NEGLIGIBLE} (own test rejects, the effect is within the minimum),
- * {@link Kind#NONE} otherwise. Δ_c contains the mirror of another centre's shift by definition (one
+ * interval lies beyond the minimum but the own test does not reject); and, only when the own test
+ * rejects, {@link Kind#VOLUME_WITHOUT_SURFACE} (the volume interval is beyond the minimum but the
+ * surface does not move the same way), {@link Kind#SIZE_UNCERTAIN} (the interval reaches past the
+ * minimum without lying beyond it) and {@link Kind#NEGLIGIBLE} (the effect is within the
+ * minimum); {@link Kind#NONE} otherwise. An interval that merely excludes 0 is not evidence about
+ * the centre: it is an unadjusted 95 % statement per centre (under no shift one of G centres
+ * excludes 0 in up to G × 5 % of studies), so without the own test it does not make a review
+ * finding. Δ_c contains the mirror of another centre's shift by definition (one
  * of G centres drawing Δ wider gives the others −Δ/(G−1)), so when a centre is flagged, a
  * review finding of the opposite direction at an unflagged centre is the mirror and is dropped
  * ({@link Kind#NONE}): the centre's own test, not its contrast, speaks for it.
@@ -42,9 +45,9 @@ public final class CentreFindings {
         SHIFT("shift", VerdictRules.FLAG_SHIFT),
         /** Two centres: the pair's test rejects and the difference is beyond the minimum. */
         PAIR_DIFFERS("pair-differs", VerdictRules.FLAG_PAIR),
-        /** The volume passes the minimum without the surface moving the same way. */
+        /** Own test rejects; the volume passes the minimum without the surface moving the same way. */
         VOLUME_WITHOUT_SURFACE("volume-without-surface", VerdictRules.FLAG_UNCERTAIN),
-        /** The interval excludes no shift and crosses the minimum. */
+        /** Own test rejects; the interval excludes no shift and crosses the minimum. */
         SIZE_UNCERTAIN("size-uncertain", VerdictRules.FLAG_UNCERTAIN),
         /** The interval is beyond the minimum but the own test does not reject. */
         EVIDENCE_DISAGREES("evidence-disagrees", VerdictRules.FLAG_UNCERTAIN),
@@ -153,9 +156,9 @@ public final class CentreFindings {
                 kind = pair ? Kind.PAIR_DIFFERS : Kind.SHIFT;
             } else if (surface || volume) {
                 kind = Kind.EVIDENCE_DISAGREES;
-            } else if (volumeAlone) {
+            } else if (rejects && volumeAlone) {
                 kind = Kind.VOLUME_WITHOUT_SURFACE;
-            } else if (crosses) {
+            } else if (rejects && crosses) {
                 kind = Kind.SIZE_UNCERTAIN;
             } else if (rejects) {
                 kind = Kind.NEGLIGIBLE;

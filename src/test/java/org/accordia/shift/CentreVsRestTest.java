@@ -25,7 +25,8 @@ import org.junit.jupiter.params.provider.ValueSource;
  * <li>p-values: brute force over ALL N! labelled reader permutations, each centre's split
  * (centre vs rest) relabelled and its pooled pseudo-F recomputed from the definitions
  * (Anderson 2001) by {@link ReaderPermutationTest#naiveF}, which shares no code with the
- * production partition enumerator;</li>
+ * production partition enumerator; the sequential procedure (rejected centres leave the rest)
+ * written out again from its documentation;</li>
  * <li>Holm adjustment: R's {@code p.adjust(method = "holm")} (fixture {@code holm.R} and its
  * output) and a direct definition (min-rank formula) on the brute-force p-values.</li>
  * </ul>
@@ -62,18 +63,104 @@ class CentreVsRestTest {
         return out;
     }
 
-    static void checkAgainstBruteForce(List<CaseDistances> cases, Map<String, String> centreOf, List<String> readers) {
-        List<CentreVsRest.Result> got = CentreVsRest.test(cases, centreOf, 0.05, 999, 100_000, 1);
-        List<String> centres = got.stream().map(CentreVsRest.Result::centre).toList();
-        double[] brute = new double[centres.size()];
-        for (int i = 0; i < centres.size(); i++) {
-            brute[i] = bruteForceP(cases, centreOf, readers, centres.get(i));
-            assertTrue(got.get(i).exact());
-            assertEquals(brute[i], got.get(i).pValue(), 1e-12, "centre " + centres.get(i));
+    /** The cases with only the readers of the given centres, written out independently of the production code. */
+    static List<CaseDistances> keepCentres(List<CaseDistances> cases, Map<String, String> centreOf, List<String> keep) {
+        List<CaseDistances> out = new ArrayList<>();
+        for (CaseDistances c : cases) {
+            List<String> ids = new ArrayList<>();
+            for (String r : c.readers()) {
+                if (keep.contains(centreOf.get(r))) {
+                    ids.add(r);
+                }
+            }
+            if (ids.size() < 2) {
+                continue;
+            }
+            double[][] all = c.distances();
+            double[][] d = new double[ids.size()][ids.size()];
+            for (int a = 0; a < ids.size(); a++) {
+                for (int b = 0; b < ids.size(); b++) {
+                    d[a][b] = all[c.readers().indexOf(ids.get(a))][c.readers().indexOf(ids.get(b))];
+                }
+            }
+            out.add(new CaseDistances(c.caseId(), ids, d));
         }
-        double[] holm = centres.size() == 2 ? brute : holmByDefinition(brute);
+        return out;
+    }
+
+    /**
+     * The documented procedure by brute force: {centre → {p, adjusted p, rejected}}. Step with k
+     * active centres: every active centre's brute-force p against the other active readers; the
+     * smallest (ties: first by name) is rejected when k·p ≤ α and leaves; stop when none is rejected
+     * or two centres remain. Two centres in all: one test, no adjustment.
+     */
+    static Map<String, double[]> bruteForceProcedure(List<CaseDistances> cases, Map<String, String> centreOf,
+            List<String> centres, double alpha) {
+        Map<String, double[]> out = new TreeMap<>();
+        List<String> active = new ArrayList<>(centres);
+        double running = 0;
+        while (true) {
+            List<CaseDistances> kept = keepCentres(cases, centreOf, active);
+            List<String> readers = new ArrayList<>();
+            for (CaseDistances c : kept) {
+                for (String r : c.readers()) {
+                    if (!readers.contains(r)) {
+                        readers.add(r);
+                    }
+                }
+            }
+            readers.sort(null);
+            Map<String, Double> p = new TreeMap<>();
+            for (String c : active) {
+                p.put(c, bruteForceP(kept, centreOf, readers, c));
+            }
+            if (centres.size() == 2) {
+                p.forEach((c, v) -> out.put(c, new double[] {v, v, v <= alpha ? 1 : 0}));
+                return out;
+            }
+            int k = active.size();
+            String best = active.stream().min((x, y) -> p.get(x).equals(p.get(y)) ? x.compareTo(y)
+                    : Double.compare(p.get(x), p.get(y))).orElseThrow();
+            boolean rejects = k * p.get(best) <= alpha;
+            if (rejects) {
+                running = Math.max(running, Math.min(1, k * p.get(best)));
+                out.put(best, new double[] {p.get(best), running, 1});
+                active.remove(best);
+            }
+            if (!rejects || active.size() <= 2) {
+                for (String c : active) {
+                    out.put(c, new double[] {p.get(c), Math.max(running, Math.min(1, k * p.get(c))), 0});
+                }
+                return out;
+            }
+        }
+    }
+
+    static void checkAgainstBruteForce(List<CaseDistances> cases, Map<String, String> centreOf, List<String> readers) {
+        checkAgainstBruteForce(cases, centreOf, readers, 0.05);
+    }
+
+    static void checkAgainstBruteForce(List<CaseDistances> cases, Map<String, String> centreOf, List<String> readers,
+            double alpha) {
+        List<CentreVsRest.Result> got = CentreVsRest.test(cases, centreOf, alpha, 999, 100_000, 1);
+        List<String> centres = got.stream().map(CentreVsRest.Result::centre).toList();
+        // the first step is plain centre-vs-rest over all readers: p as Holm's input
+        double[] first = new double[centres.size()];
         for (int i = 0; i < centres.size(); i++) {
-            assertEquals(holm[i], got.get(i).adjustedP(), 1e-12, "adjusted, centre " + centres.get(i));
+            first[i] = bruteForceP(cases, centreOf, readers, centres.get(i));
+        }
+        Map<String, double[]> oracle = bruteForceProcedure(cases, centreOf, centres, alpha);
+        for (int i = 0; i < centres.size(); i++) {
+            double[] o = oracle.get(centres.get(i));
+            CentreVsRest.Result r = got.get(i);
+            assertTrue(r.exact());
+            assertEquals(o[0], r.pValue(), 1e-12, "p, centre " + centres.get(i));
+            assertEquals(o[1], r.adjustedP(), 1e-12, "adjusted, centre " + centres.get(i));
+            assertEquals(o[2] == 1, r.rejected(), "rejected, centre " + centres.get(i));
+            if (oracle.values().stream().noneMatch(v -> v[2] == 1)) {
+                // nothing rejected: every p is the all-reader centre-vs-rest p
+                assertEquals(first[i], r.pValue(), 1e-12);
+            }
         }
     }
 
@@ -116,6 +203,33 @@ class CentreVsRestTest {
         List<CentreVsRest.Result> got = CentreVsRest.test(cases, centreOf, 0.05, 999, 100_000, 1);
         assertEquals(7, got.get(0).permutations(), "a one-reader centre: C(7, 1) splits");
         assertEquals(1.0 / 7, got.get(0).minP(), 1e-12);
+    }
+
+    /**
+     * The sequential steps: four centres of two readers (8! = 40,320 permutations per brute-force
+     * p), one or two centres shifted, run at α = 0.25 so that the small design rejects and the
+     * rejected centre's readers leave before the next step (C(8, 2) = 28 splits, then C(6, 2) = 15).
+     */
+    @ParameterizedTest(name = "seed {0}")
+    @ValueSource(ints = {1, 2, 3, 4})
+    void sequentialStepsAgreeWithBruteForce(int seed) {
+        List<String> readers = new ArrayList<>();
+        Map<String, String> centreOf = ReaderPermutationTest.design(4, 2, readers);
+        Random random = new Random(100 + seed);
+        List<CaseDistances> cases = new ArrayList<>();
+        for (int k = 0; k < 3; k++) {
+            double[][] pts = new double[readers.size()][2];
+            for (int i = 0; i < pts.length; i++) {
+                String c = centreOf.get(readers.get(i));
+                pts[i][0] = (c.equals("centre1") ? 3 : 0) + (seed % 2 == 0 && c.equals("centre3") ? -2 : 0)
+                        + 0.5 * random.nextGaussian();
+                pts[i][1] = 0.5 * random.nextGaussian();
+            }
+            cases.add(new CaseDistances("k" + k, readers, DistancePartitionTest.euclid(pts)));
+        }
+        checkAgainstBruteForce(cases, centreOf, readers, 0.25);
+        List<CentreVsRest.Result> got = CentreVsRest.test(cases, centreOf, 0.25, 999, 100_000, 1);
+        assertTrue(got.get(1).rejected(), got.toString());
     }
 
     @ParameterizedTest(name = "seed {0}")

@@ -24,8 +24,9 @@ class VerdictRulesTest {
     /** The findings with {@code first}'s own test at p (adjusted p) and every other centre at 0.5. */
     static CentreFindings.Result findings(List<GroupEffect> effects, String first, double p, double minP) {
         List<CentreVsRest.Result> tests = effects.stream().map(e -> e.group().equals(first)
-                ? new CentreVsRest.Result(e.group(), 3, 9.0, p, p, 84, true, minP, minP * 3 <= 0.05)
-                : new CentreVsRest.Result(e.group(), 3, 1.0, 0.5, 0.5, 84, true, minP, minP * 3 <= 0.05)).toList();
+                ? new CentreVsRest.Result(e.group(), 3, 9.0, p, p, 84, true, minP, minP * 3 <= 0.05,
+                        minP * 3 <= 0.05 && p <= 0.05)
+                : new CentreVsRest.Result(e.group(), 3, 1.0, 0.5, 0.5, 84, true, minP, minP * 3 <= 0.05, false)).toList();
         return CentreFindings.judge(tests, effects, S);
     }
 
@@ -39,7 +40,8 @@ class VerdictRulesTest {
         "'large, supported shift',            0.004, 0.0036, 1.4,  1.1,  1.7,  0, false, re-annotate, centre-shift",
         "'large shift inside',                0.004, 0.0036, -1.4, -1.7, -1.1, 0, false, re-annotate, centre-shift",
         "'significant, small effect',         0.004, 0.0036, 0.3,  0.1,  0.5,  0, false, review,      significant-but-small",
-        "'interval crosses minimum',          0.30,  0.0036, 0.9,  0.4,  1.4,  0, false, review,      uncertain-centre-effect",
+        "'crosses minimum, own test rejects', 0.004, 0.0036, 0.9,  0.4,  1.4,  0, false, review,      significant-but-small",
+        "'crosses minimum, no own evidence',  0.30,  0.0036, 0.9,  0.4,  1.4,  0, false, pool,        no-shift",
         "'beyond minimum, test not signif.',  0.30,  0.0036, 1.6,  1.2,  2.0,  0, false, review,      uncertain-centre-effect",
         "'design cannot reach alpha',         0.333, 0.3333, 1.5,  -0.2, 3.2,  0, false, review,      design-cannot-reach-alpha",
         "'design cannot reach, small effect', 0.333, 0.3333, 0.2,  -0.2, 0.6,  0, false, pool,        no-shift",
@@ -144,8 +146,8 @@ class VerdictRulesTest {
                 new GroupEffect("east", "east", 3, 12, 1.4, 1.1, 1.7, 1.43, 1.33, 1.54));
         // two centres: one split, the same test for both
         List<CentreVsRest.Result> tests = List.of(
-                new CentreVsRest.Result("east", 3, 9.0, p, p, 10, true, minP, minP <= 0.05),
-                new CentreVsRest.Result("west", 3, 9.0, p, p, 10, true, minP, minP <= 0.05));
+                new CentreVsRest.Result("east", 3, 9.0, p, p, 10, true, minP, minP <= 0.05, p <= 0.05),
+                new CentreVsRest.Result("west", 3, 9.0, p, p, 10, true, minP, minP <= 0.05, p <= 0.05));
         CentreFindings.Result f = CentreFindings.judge(tests, delta, S);
         assertTrue(f.pair());
         VerdictRules.Decision d = VerdictRules.decide(test(p, minP), f, 0, 20, List.of(), S);
@@ -170,9 +172,9 @@ class VerdictRulesTest {
                 new GroupEffect("east", "east", 3, 12, 1.4, 1.1, 1.7, 1.43, 1.33, 1.54), empty,
                 new GroupEffect("west", "west", 3, 12, -1.4, -1.7, -1.1, 0.7, 0.65, 0.75));
         List<CentreVsRest.Result> tests = List.of(
-                new CentreVsRest.Result("east", 3, 9.0, 0.004, 0.004, 84, true, 0.0036, true),
-                new CentreVsRest.Result("north", 3, 1.0, 0.5, 0.5, 84, true, 0.0036, true),
-                new CentreVsRest.Result("west", 3, 9.0, 0.004, 0.004, 84, true, 0.0036, true));
+                new CentreVsRest.Result("east", 3, 9.0, 0.004, 0.004, 84, true, 0.0036, true, true),
+                new CentreVsRest.Result("north", 3, 1.0, 0.5, 0.5, 84, true, 0.0036, true, false),
+                new CentreVsRest.Result("west", 3, 9.0, 0.004, 0.004, 84, true, 0.0036, true, true));
         VerdictRules.Decision d = VerdictRules.decide(test(0.004, 0.0036), CentreFindings.judge(tests, raw, S), 0, 20,
                 List.of(), S);
         assertEquals("centre-pair-differs", d.rule());
