@@ -206,7 +206,7 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
      *     compute it
      */
     public List<ReaderPerformance> rowsWithSurfaces(List<LabelVolume> masks, int[] structureLabels,
-            org.accordia.agreement.Borders.Box unionBox) {
+            org.accordia.grid.Box unionBox) {
         if (masks.size() != readers.size()) {
             throw new IllegalArgumentException("one mask per reader expected");
         }
