@@ -62,8 +62,9 @@ import org.accordia.study.StudyProblem;
  * ({@link CaseAgreementEngine}); the STAPLE references all / others / other_centres with signed
  * surfaces ({@link CaseReferences#rowsWithSurfaces}); when the study has several label values, the
  * multi-label STAPLE; the sink; a {@link CaseRecord}. Per structure: the {@link LabelShiftInput}
- * (distance matrices from the pairs per the protocol's {@code shift.distance}; centre effects and
- * variance components from the signed surface distance against the other centres' consensus;
+ * (distance matrices from the pairs per the protocol's {@code shift.distance}; raw centre effects
+ * from the signed surface distance against the other centres' consensus; the judged centre effects
+ * Δ_c and the variance components from the same measure against the consensus of all readers;
  * reader effects against the other readers' consensus; case summaries; complete-case volumes for
  * the ICC), {@link ShiftAnalysis}, reader bootstrap summaries, readers who overlook part of the
  * structure, and notes on centre effects.
@@ -263,6 +264,7 @@ public final class StudyAnalysis {
         List<CaseDistances> distances = new ArrayList<>();
         List<ReaderCaseMeasure> centreMeasures = new ArrayList<>();
         List<ReaderCaseMeasure> readerMeasures = new ArrayList<>();
+        List<ReaderCaseMeasure> commonMeasures = new ArrayList<>();
         List<ReaderMeasure> variance = new ArrayList<>();
         List<CaseSummary> summaries2 = new ArrayList<>();
         List<double[]> volumeRows = new ArrayList<>();
@@ -282,7 +284,12 @@ public final class StudyAnalysis {
                         p.signedSurfaceMm(), p.volumeRatio());
                     if (p.reference().equals(ReaderPerformance.REFERENCE_OTHER_CENTRES)) {
                         centreMeasures.add(m);
-                        variance.add(new ReaderMeasure(c.caseId(), r.centre(), keys.get(r), p.signedSurfaceMm()));
+                    } else if (p.reference().equals(ReaderPerformance.REFERENCE_ALL)) {
+                        // one common reference per case, antisymmetric border offset: the measure the centre
+                        // effects and the variance-component model share
+                        commonMeasures.add(new ReaderCaseMeasure(keys.get(r), r.centre(), c.caseId(),
+                            p.borderOffsetMm(), p.volumeRatio()));
+                        variance.add(new ReaderMeasure(c.caseId(), r.centre(), keys.get(r), p.borderOffsetMm()));
                     } else if (p.reference().equals(ReaderPerformance.REFERENCE_OTHERS)) {
                         readerMeasures.add(m);
                     }
@@ -299,8 +306,8 @@ public final class StudyAnalysis {
         }
         double[][] volumes = volumeRows.size() >= 2 && readers.size() >= 2 ? volumeRows.toArray(new double[0][]) : null;
         LabelShiftInput input = new LabelShiftInput(s + 1, st.name(), distanceName(distance),
-            readerCentre, distances, centreMeasures, readerMeasures,
-            "signed surface distance against the other centres' consensus (mm)", variance, summaries2, volumes);
+            readerCentre, distances, centreMeasures, readerMeasures, commonMeasures,
+            "border offset against the consensus of all readers (mm)", variance, summaries2, volumes);
         LabelShiftReport report = ShiftAnalysis.analyse(input, settings);
         List<String> notes = new ArrayList<>();
         LabelShiftSummary summary = orderFlagged(report, notes, settings);

@@ -37,7 +37,9 @@ public final class Tables {
         "specificity", "dice_vs_consensus", "volume_ml", "volume_ratio", "signed_surface_mm", "reference");
     /** Columns of centres.csv. */
     public static final List<String> CENTRES = List.of("label", "centre", "readers", "cases", "signed_surface_mm",
-        "signed_surface_lo", "signed_surface_hi", "volume_ratio", "volume_ratio_lo", "volume_ratio_hi", "flag");
+        "signed_surface_lo", "signed_surface_hi", "volume_ratio", "volume_ratio_lo", "volume_ratio_hi", "flag",
+        "effect_mm", "effect_lo_mm", "effect_hi_mm", "effect_volume_ratio", "effect_volume_ratio_lo",
+        "effect_volume_ratio_hi", "test_p", "test_p_holm", "test_min_p", "test_splits", "finding");
     /** Columns of cases.csv. */
     public static final List<String> CASES = List.of("case", "label", "readers_present", "readers_missing",
         "mean_dice", "median_dice", "worst_reader_a", "worst_reader_b", "worst_dice", "max_hd95_mm", "fleiss_kappa",
@@ -108,7 +110,10 @@ public final class Tables {
     public static List<CsvTable.Cell> centreRow(CentreRow c) {
         return List.of(text(c.label()), text(c.centre()), integer(c.readers()), integer(c.cases()),
             number(c.signedSurfaceMm()), number(c.signedSurfaceLoMm()), number(c.signedSurfaceHiMm()),
-            number(c.volumeRatio()), number(c.volumeRatioLo()), number(c.volumeRatioHi()), text(c.flag()));
+            number(c.volumeRatio()), number(c.volumeRatioLo()), number(c.volumeRatioHi()), text(c.flag()),
+            number(c.effectMm()), number(c.effectLoMm()), number(c.effectHiMm()), number(c.effectVolumeRatio()),
+            number(c.effectVolumeRatioLo()), number(c.effectVolumeRatioHi()), number(c.testP()),
+            number(c.testPAdjusted()), number(c.testMinP()), integer(c.testPermutations()), text(c.finding()));
     }
 
     /** One row per case and label. */

@@ -15,6 +15,9 @@ import java.util.Map;
  *                             the other centres' consensus (centre effects)
  * @param readerMeasures       per reader and case: the same against the other readers' consensus
  *                             (reader recalibration); may be the same list as centreMeasures
+ * @param commonMeasures       per reader and case: the antisymmetric border offset (mm) and volume
+ *                             ratio against ONE common reference per case (the consensus of all
+ *                             readers): the centre effects Δ_c the flag judges ({@link CentreContrasts})
  * @param varianceMeasureName  name and unit of the variance-component measure, e.g. "signed surface distance (mm)"
  * @param varianceMeasures     per reader and case: the measure for the variance-component model
  *                             (empty: no variance components)
@@ -29,6 +32,7 @@ public record LabelShiftInput(
         List<CaseDistances> distances,
         List<ReaderCaseMeasure> centreMeasures,
         List<ReaderCaseMeasure> readerMeasures,
+        List<ReaderCaseMeasure> commonMeasures,
         String varianceMeasureName,
         List<ReaderMeasure> varianceMeasures,
         List<CaseSummary> caseSummaries,
@@ -39,6 +43,7 @@ public record LabelShiftInput(
         distances = List.copyOf(distances);
         centreMeasures = List.copyOf(centreMeasures);
         readerMeasures = List.copyOf(readerMeasures);
+        commonMeasures = List.copyOf(commonMeasures);
         varianceMeasures = List.copyOf(varianceMeasures);
         caseSummaries = List.copyOf(caseSummaries);
         if (volumesMl != null) {

@@ -13,7 +13,7 @@ import java.util.TreeSet;
  * cases to adjudicate and readers to recalibrate ({@link ReviewLists}), an ICC side table
  * ({@link Icc}) and the verdict ({@link VerdictRules}). Deterministic: the same input and settings
  * give the same report. Seeds: permutation test {@code seed}, effect bootstrap {@code seed + 1},
- * variance components {@code seed + 2}, each offset by 1,000,003 × label so labels do not share
+ * variance components {@code seed + 2}, centre-vs-rest tests {@code seed + 3} (+ 7919 per centre), each offset by 1,000,003 × label so labels do not share
  * random streams.
  */
 public final class ShiftAnalysis {
@@ -26,8 +26,10 @@ public final class ShiftAnalysis {
         PermutationResult test = PermutationTest.test(in.distances(), in.readerCentre(), s.alpha(), s.permutations(),
                 s.exactLimit(), base);
         List<GroupEffect> centres = EffectEstimator.byCentre(in.centreMeasures(), s.bootstrapResamples(), base + 1);
-        // same seed as byCentre: the offsets' bootstrap uses the very same case resamples
-        List<GroupEffect> offsets = EffectEstimator.centreOffsets(in.centreMeasures(), s.bootstrapResamples(), base + 1);
+        List<CentreContrasts.Contrast> contrasts = CentreContrasts.estimate(in.commonMeasures());
+        List<CentreVsRest.Result> centreTests = CentreVsRest.test(in.distances(), in.readerCentre(), s.alpha(),
+                s.permutations(), s.exactLimit(), base + 3);
+        CentreFindings.Result findings = CentreFindings.judge(centreTests, CentreContrasts.effects(contrasts), s);
         List<GroupEffect> readers = EffectEstimator.byReader(in.readerMeasures(), s.bootstrapResamples(), base + 1);
         VarianceComponents.Result vc = in.varianceMeasures().isEmpty() ? null
                 : VarianceComponents.fit(in.varianceMeasures(), s.varianceResamples(), s.centreTestResamples(), base + 2);
@@ -38,13 +40,15 @@ public final class ShiftAnalysis {
         TreeSet<String> allCases = new TreeSet<>();
         in.caseSummaries().forEach(c -> allCases.add(c.caseId()));
         in.distances().forEach(c -> allCases.add(c.caseId()));
-        VerdictRules.Decision decision = VerdictRules.decide(test, centres, offsets, adjudicate.size(), allCases.size(),
+        VerdictRules.Decision decision = VerdictRules.decide(test, findings, adjudicate.size(), allCases.size(),
                 recalibrate, s);
 
         List<CentreRow> rows = new ArrayList<>();
         String labelName = in.name() == null ? Integer.toString(in.label()) : in.name();
+        Map<String, GroupEffect> deltaOf = new LinkedHashMap<>();
+        contrasts.forEach(c -> deltaOf.put(c.effect().group(), c.effect()));
         for (GroupEffect e : centres) {
-            rows.add(CentreRow.of(labelName, e, decision.centreFlags().getOrDefault(e.group(), VerdictRules.FLAG_NONE)));
+            rows.add(CentreRow.of(labelName, e, findings.of(e.group()), deltaOf.get(e.group())));
         }
         List<String> notes = new ArrayList<>(partition.notes());
         if (vc != null) {
@@ -83,6 +87,7 @@ public final class ShiftAnalysis {
         LabelShiftSummary summary = new LabelShiftSummary(in.label(), in.name(), shift,
                 vc == null ? null : in.varianceMeasureName(), components, intervalMethod, centreTest, iccForms,
                 decision.verdict(), decision.rule(), reasons, adjudicate, recalibrate);
-        return new LabelShiftReport(summary, rows, partition, test, vc, centres, readers, icc, offsets);
+        return new LabelShiftReport(summary, rows, partition, test, vc, centres, readers, icc, contrasts, centreTests,
+                findings);
     }
 }
