@@ -22,10 +22,20 @@ import java.util.List;
  * @param signedSurfaceMm mean signed distance of the reader's border voxels to the reference
  *     boundary in mm (positive = outside the reference); NaN when not computed or undefined
  * @param reference {@code all}, {@code others} or {@code other_centres} (see docs/consensus.md)
+ * @param border where the reader's border lies against the reference beyond the structure's
+ *     tolerance ({@link BorderProfile}); null when not computed
  */
 public record ReaderPerformance(String caseId, String label, String reader, String centre, double sensitivity,
         double specificity, double diceVsConsensus, double volumeMl, double volumeRatio, double signedSurfaceMm,
-        String reference) {
+        String reference, BorderProfile border) {
+
+    /** A row without a border profile. */
+    public ReaderPerformance(String caseId, String label, String reader, String centre, double sensitivity,
+            double specificity, double diceVsConsensus, double volumeMl, double volumeRatio, double signedSurfaceMm,
+            String reference) {
+        this(caseId, label, reader, centre, sensitivity, specificity, diceVsConsensus, volumeMl, volumeRatio,
+            signedSurfaceMm, reference, null);
+    }
 
     public static final String REFERENCE_ALL = "all";
     public static final String REFERENCE_OTHERS = "others";
@@ -40,6 +50,12 @@ public record ReaderPerformance(String caseId, String label, String reader, Stri
     /** The same row with a signed surface distance filled in. */
     public ReaderPerformance withSignedSurfaceMm(double mm) {
         return new ReaderPerformance(caseId, label, reader, centre, sensitivity, specificity, diceVsConsensus,
-            volumeMl, volumeRatio, mm, reference);
+            volumeMl, volumeRatio, mm, reference, border);
+    }
+
+    /** The same row with a signed surface distance and a border profile filled in. */
+    public ReaderPerformance withSurface(double mm, BorderProfile profile) {
+        return new ReaderPerformance(caseId, label, reader, centre, sensitivity, specificity, diceVsConsensus,
+            volumeMl, volumeRatio, mm, reference, profile);
     }
 }

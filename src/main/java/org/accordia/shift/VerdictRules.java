@@ -60,6 +60,12 @@ public final class VerdictRules {
     public static final String MANY_CASES_TO_ADJUDICATE = "many-cases-to-adjudicate";
     public static final String READERS_TO_RECALIBRATE = "readers-to-recalibrate";
     public static final String NO_SHIFT = "no-shift";
+    /** A centre's masks are all empty for a structure the others draw: no pooling verdict while it stands. */
+    public static final String EMPTY_CENTRE = "empty-centre";
+    /** A reader's masks are all empty for a structure the others draw. */
+    public static final String EMPTY_READER = "empty-reader";
+    /** One centre only: a between-centre shift is not testable (pool level when nothing else fires). */
+    public static final String SINGLE_CENTRE = "single-centre";
 
     /** Centre flag values used in centres.csv. */
     public static final String FLAG_SHIFT = "shift";
@@ -79,11 +85,36 @@ public final class VerdictRules {
      * @param centreFlags     centre → shift / uncertain / none
      */
     public record Decision(Verdict verdict, String rule, List<String> reasons, List<String> flaggedCentres,
-            Map<String, String> centreFlags) {
+            Map<String, String> centreFlags, List<DesignLimit> designLimits, List<EmptyGroup> emptyGroups) {
         public Decision {
             reasons = List.copyOf(reasons);
             flaggedCentres = List.copyOf(flaggedCentres);
             centreFlags = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(centreFlags));
+            designLimits = List.copyOf(designLimits);
+            emptyGroups = List.copyOf(emptyGroups);
+        }
+    }
+
+    /**
+     * What the decision needs beyond the test and the effects.
+     *
+     * @param designLimits   what the roster cannot answer ({@link DesignLimits})
+     * @param emptyGroups    centres or readers whose masks are all empty ({@link EmptyGroups})
+     * @param localEffects   the centres' shares of border beyond tolerance ({@link LocalEffects});
+     *                       empty when not computed
+     * @param masksToCorrect masks a reader should correct (reported, not a rule of their own)
+     */
+    public record Context(List<DesignLimit> designLimits, List<EmptyGroup> emptyGroups,
+            List<LocalEffect> localEffects, int masksToCorrect) {
+        public Context {
+            designLimits = List.copyOf(designLimits);
+            emptyGroups = List.copyOf(emptyGroups);
+            localEffects = List.copyOf(localEffects);
+        }
+
+        /** Nothing beyond the test and the effects. */
+        public static Context none() {
+            return new Context(List.of(), List.of(), List.of(), 0);
         }
     }
 
@@ -103,7 +134,16 @@ public final class VerdictRules {
      */
     public static Decision decide(PermutationResult test, List<GroupEffect> centres, List<GroupEffect> offsets,
             int casesToAdjudicate, int totalCases, List<ReaderToRecalibrate> readers, ShiftSettings s) {
-        boolean significant = test.canReachAlpha() && test.pValue() <= s.alpha();
+        return decide(test, centres, offsets, casesToAdjudicate, totalCases, readers, s, Context.none());
+    }
+
+    /** The decision with the design limits, empty groups and local effects of {@code ctx}. */
+    public static Decision decide(PermutationResult test, List<GroupEffect> centres, List<GroupEffect> offsets,
+            int casesToAdjudicate, int totalCases, List<ReaderToRecalibrate> readers, ShiftSettings s, Context ctx) {
+        boolean withheld = !ctx.emptyGroups().isEmpty();
+        boolean significant = !withheld && test.canReachAlpha() && test.pValue() <= s.alpha();
+        Map<String, LocalEffect> localOf = new LinkedHashMap<>();
+        ctx.localEffects().forEach(l -> localOf.put(l.centre(), l));
         String testWords = testWords(test, s);
         List<String> flagged = new ArrayList<>();
         Map<String, String> flags = new LinkedHashMap<>();
@@ -144,6 +184,8 @@ public final class VerdictRules {
             boolean volume = volumeBeyond && surfaceSameWay(e);
             boolean volumeAlone = volumeBeyond && !volume && !surface;
             boolean uncertain = e.crossesMinimum(s.minimumShiftMm(), s.minimumVolumeShiftPercent());
+            LocalEffect local = localOf.get(e.group());
+            boolean localBeyond = local != null && local.beyond(LocalEffects.MINIMUM_EXCESS);
             String words;
             List<String> who;
             if (pair) {
@@ -151,19 +193,51 @@ public final class VerdictRules {
                         .findFirst().orElseThrow();
                 who = List.of(e.group(), other);
                 words = "Centres " + e.group() + " and " + other + " differ from each other: " + e.group() + " "
-                        + e.describe("centre " + other);
+                        + e.describe("centre " + other, s.minimumShiftMm(), s.minimumVolumeShiftPercent());
             } else if (centred) {
                 who = List.of(e.group());
-                words = "Centre " + e.group() + " " + e.describe("the typical centre")
+                words = "Centre " + e.group() + " " + e.describe("the typical centre", s.minimumShiftMm(),
+                        s.minimumVolumeShiftPercent())
                         + " (the other centres' consensus includes this centre's own shift, so the comparison is"
                         + " re-centred on the median centre; against the other centres' consensus it "
                         + rawOf.get(e.group()).describe("them") + ")";
             } else {
                 who = List.of(e.group());
-                words = "Centre " + e.group() + " " + e.describe("the other centres");
+                words = "Centre " + e.group() + " " + e.describe("the other centres", s.minimumShiftMm(),
+                        s.minimumVolumeShiftPercent());
             }
             String which = surface && volume ? "surface and volume" : surface ? "surface"
                     : "volume (with the surface interval on the same side of 0)";
+            if (withheld) {
+                who.forEach(g -> flags.put(g, FLAG_NONE));
+                continue;
+            }
+            if (localBeyond && !surface && !volume) {
+                String localWords = localWords(local, pair ? "centre " + who.get(1) : "the typical centre");
+                if (significant) {
+                    for (String g : who) {
+                        flagged.add(g);
+                        flags.put(g, pair ? FLAG_PAIR : FLAG_SHIFT);
+                    }
+                    String subject = pair ? "Centres " + who.get(0) + " and " + who.get(1) + " differ on one side "
+                            + "of the structure: centre " + who.get(0) : "Centre " + who.get(0);
+                    shiftReasons.add(String.format(Locale.ROOT, "%s: %s; the excess interval lies entirely above the "
+                            + "minimum (%s points) and %s. The mean distance and the volume dilute a difference on "
+                            + "one side of the structure; the report shows where the centre differs.", subject,
+                            localWords, Wording.plain(100 * LocalEffects.MINIMUM_EXCESS, 3), testWords));
+                } else {
+                    who.forEach(g -> flags.put(g, FLAG_UNCERTAIN));
+                    uncertainReasons.add(String.format(Locale.ROOT, "Centre %s: %s; the excess interval lies entirely "
+                            + "above the minimum (%s points), but %s.", who.get(0), localWords,
+                            Wording.plain(100 * LocalEffects.MINIMUM_EXCESS, 3), test.canReachAlpha()
+                                    ? testWords + ", so the evidence disagrees"
+                                    : "this design cannot confirm it with the permutation test (" + testWords + ")"));
+                }
+                if (e.pointBeyond(s.minimumShiftMm(), s.minimumVolumeShiftPercent())) {
+                    pointLarge.add(words);
+                }
+                continue;
+            }
             if (significant && (surface || volume)) {
                 for (String g : who) {
                     flagged.add(g);
@@ -180,16 +254,21 @@ public final class VerdictRules {
                                 words, which, minimumWords(s), testWords));
             } else if (surface || volume) {
                 who.forEach(g -> flags.put(g, FLAG_UNCERTAIN));
-                uncertainReasons.add(String.format(Locale.ROOT,
-                        "%s; the interval lies beyond the minimum shift (%s) but %s, so the evidence disagrees.",
-                        words, minimumWords(s), testWords));
+                String beyond = surface && volume ? "surface and volume intervals lie"
+                        : surface ? "surface interval lies" : "volume interval lies (with the surface interval on the same side of 0)";
+                uncertainReasons.add(test.canReachAlpha()
+                        ? String.format(Locale.ROOT, "%s; the %s beyond the minimum shift (%s) but %s, so the evidence "
+                                + "disagrees.", words, beyond, minimumWords(s), testWords)
+                        : String.format(Locale.ROOT, "%s; the %s beyond the minimum shift (%s), but this design "
+                                + "cannot confirm it with the permutation test (%s).", words, beyond, minimumWords(s),
+                                testWords));
             } else if (volumeAlone) {
                 who.forEach(g -> flags.put(g, FLAG_UNCERTAIN));
                 uncertainReasons.add(String.format(Locale.ROOT,
-                        "%s; the volume interval lies beyond %.0f%% but the surface distance does not move the same "
+                        "%s; the volume interval lies beyond %s%% but the surface distance does not move the same "
                                 + "way with confidence, so the volume difference alone does not flag the centre "
                                 + "(a volume ratio moves far more than the boundary on small structures); look at "
-                                + "the masks.", words, s.minimumVolumeShiftPercent()));
+                                + "the masks.", words, Wording.plain(s.minimumVolumeShiftPercent(), 3)));
             } else if (uncertain) {
                 who.forEach(g -> flags.put(g, FLAG_UNCERTAIN));
                 uncertainReasons.add(String.format(Locale.ROOT,
@@ -205,6 +284,17 @@ public final class VerdictRules {
         Verdict verdict = Verdict.POOL;
         String rule = null;
         List<String> reasons = new ArrayList<>();
+        if (withheld) {
+            verdict = Verdict.REVIEW;
+            boolean centre = ctx.emptyGroups().stream().anyMatch(g -> g.level() == EmptyGroup.Level.CENTRE);
+            rule = centre ? EMPTY_CENTRE : EMPTY_READER;
+            for (EmptyGroup g : ctx.emptyGroups()) {
+                reasons.add(emptyWords(g));
+            }
+            reasons.add("No pooling verdict is given while this stands: the between-centre comparison is withheld "
+                    + "until the empty masks are explained (a label convention, a wrong export, or a structure this "
+                    + "group was not asked to draw), and these readers are left out of the cases to adjudicate.");
+        }
         if (!flagged.isEmpty()) {
             verdict = Verdict.RE_ANNOTATE;
             rule = pair ? CENTRE_PAIR_DIFFERS : CENTRE_SHIFT;
@@ -222,22 +312,20 @@ public final class VerdictRules {
             rule = rule == null ? UNCERTAIN_CENTRE_EFFECT : rule;
             reasons.addAll(uncertainReasons);
         }
-        if (!test.canReachAlpha() && !test.statement().isEmpty()) {
-            if (!pointLarge.isEmpty()) {
-                verdict = max(verdict, Verdict.REVIEW);
-                rule = rule == null ? DESIGN_CANNOT_REACH_ALPHA : rule;
-                reasons.add(test.statement() + " The point estimate exceeds the minimum shift for: "
-                        + String.join("; ", pointLarge) + ".");
-            } else {
-                reasons.add(test.statement());
-            }
+        if (!withheld && !test.canReachAlpha() && !Double.isNaN(test.pValue()) && !pointLarge.isEmpty()) {
+            verdict = max(verdict, Verdict.REVIEW);
+            rule = rule == null ? DESIGN_CANNOT_REACH_ALPHA : rule;
+            reasons.add("The point estimate exceeds the minimum shift for: " + String.join("; ", pointLarge)
+                    + "; this design cannot reach " + Wording.alpha(s.alpha()) + " (smallest reachable p = "
+                    + Wording.plain(test.minP(), 3) + "), so the test cannot confirm it.");
         }
         if (totalCases > 0 && (double) casesToAdjudicate / totalCases > s.adjudicationShare()) {
             verdict = max(verdict, Verdict.REVIEW);
             rule = rule == null ? MANY_CASES_TO_ADJUDICATE : rule;
-            reasons.add(String.format(Locale.ROOT, "%d of %d cases (%.0f%%) need adjudication, more than %.0f%%.",
-                    casesToAdjudicate, totalCases, 100.0 * casesToAdjudicate / totalCases,
-                    100 * s.adjudicationShare()));
+            double share = 100.0 * casesToAdjudicate / totalCases;
+            reasons.add(String.format(Locale.ROOT, "%d of %d cases (%s%%) need adjudication, more than %s%%.",
+                    casesToAdjudicate, totalCases, Wording.beside(share, 0, 100 * s.adjudicationShare()),
+                    Wording.threshold(100 * s.adjudicationShare(), share, 0)));
         }
         if (!readers.isEmpty()) {
             verdict = max(verdict, Verdict.REVIEW);
@@ -246,6 +334,18 @@ public final class VerdictRules {
             reasons.add(readers.size() + " reader" + (readers.size() == 1 ? " needs" : "s need") + " recalibration: "
                     + String.join(", ", names) + ".");
         }
+        boolean single = ctx.designLimits().stream().anyMatch(l -> l.kind() == DesignLimitation.SINGLE_CENTRE);
+        if (single && !withheld) {
+            String words = "Single centre: a between-centre shift is not testable; the decision rests on the "
+                    + "readers' agreement within the centre.";
+            if (rule == null) {
+                rule = SINGLE_CENTRE;
+                reasons.add(0, String.format(Locale.ROOT, "%s %d of %d cases need adjudication and no reader needs "
+                        + "recalibration.", words, casesToAdjudicate, totalCases));
+            } else {
+                reasons.add(words);
+            }
+        }
         if (rule == null) {
             rule = NO_SHIFT;
             reasons.add(0, String.format(Locale.ROOT,
@@ -253,10 +353,53 @@ public final class VerdictRules {
                             + "adjudication and no reader needs recalibration.",
                     testWords, casesToAdjudicate, totalCases));
         }
+        if (ctx.masksToCorrect() > 0) {
+            reasons.add(ctx.masksToCorrect() + " mask" + (ctx.masksToCorrect() == 1 ? "" : "s")
+                    + " should be corrected by " + (ctx.masksToCorrect() == 1 ? "its reader" : "their readers")
+                    + " (a part left out, or an empty mask where every other reader draws the structure); they are "
+                    + "listed apart and do not count as cases to adjudicate.");
+        }
         flagged.sort(null);
         Map<String, String> sortedFlags = new LinkedHashMap<>();
         centres.stream().map(GroupEffect::group).sorted().forEach(g -> sortedFlags.put(g, flags.getOrDefault(g, FLAG_NONE)));
-        return new Decision(verdict, rule, reasons, flagged, sortedFlags);
+        return new Decision(verdict, rule, reasons, flagged, sortedFlags, ctx.designLimits(), ctx.emptyGroups());
+    }
+
+    /** "23% [15%, 31%] of its border lies more than 2 mm outside ..., 18 points [10, 26] more than ...". */
+    static String localWords(LocalEffect l, String typical) {
+        boolean outside = l.outsideSide();
+        double share = outside ? l.outsideShare() : l.insideShare();
+        double ex = outside ? l.outsideExcess() : l.insideExcess();
+        double lo = outside ? l.outsideExcessLo() : l.insideExcessLo();
+        double hi = outside ? l.outsideExcessHi() : l.insideExcessHi();
+        double m = 100 * LocalEffects.MINIMUM_EXCESS;
+        String where = "";
+        int d = l.mainDirection();
+        if (outside && d >= 0) {
+            where = String.format(Locale.ROOT, "; most on the %s side (%s%% of the border there)",
+                    org.accordia.consensus.BorderProfile.DIRECTION_NAMES.get(d),
+                    Wording.beside(100 * l.outsideByDirection().get(d), 0));
+        }
+        return String.format(Locale.ROOT, "%s%% of its readers' border lies more than %s mm %s the other centres' "
+                + "consensus, %s points [%s, %s] more than %s%s", Wording.beside(100 * share, 0),
+                Wording.plain(l.toleranceMm(), 3), outside ? "outside" : "inside", Wording.beside(100 * ex, 0, m),
+                Wording.beside(100 * lo, 0, 0, m), Wording.beside(100 * hi, 0, 0, m), typical, where);
+    }
+
+    /** "Centre norvale: all 30 masks are empty for this structure ...; labels 5, 6 occur only there — ...". */
+    static String emptyWords(EmptyGroup g) {
+        String who = g.level() == EmptyGroup.Level.CENTRE ? "Centre " + g.group() : "Reader " + g.group() + " ("
+                + g.centre() + ")";
+        String labels = g.labelsOnlyHere().isEmpty() ? ""
+                : String.format(Locale.ROOT, "; label%s %s occur%s only %s — a label convention?",
+                        g.labelsOnlyHere().size() == 1 ? "" : "s",
+                        String.join(" and ", g.labelsOnlyHere().stream().map(String::valueOf).toList()),
+                        g.labelsOnlyHere().size() == 1 ? "s" : "",
+                        g.level() == EmptyGroup.Level.CENTRE ? "at centre " + g.group() : "in reader " + g.group()
+                                + "'s masks");
+        return String.format(Locale.ROOT, "%s: all %d mask%s empty for this structure, which most other readers draw "
+                + "on %d of %s cases%s.", who, g.masks(), g.masks() == 1 ? " is" : "s are", g.othersDraw(),
+                g.level() == EmptyGroup.Level.CENTRE ? "its" : "the reader's", labels);
     }
 
     /**
@@ -272,22 +415,21 @@ public final class VerdictRules {
     }
 
     private static String minimumWords(ShiftSettings s) {
-        return String.format(Locale.ROOT, "%.1f mm or %.0f%% volume", s.minimumShiftMm(), s.minimumVolumeShiftPercent());
+        return Wording.plain(s.minimumShiftMm(), 3) + " mm or " + Wording.plain(s.minimumVolumeShiftPercent(), 3)
+                + "% volume";
     }
 
     static String testWords(PermutationResult t, ShiftSettings s) {
         if (Double.isNaN(t.pValue())) {
             return "the permutation test is not applicable";
         }
-        String how = t.exact() ? "exact, " + t.permutations() + " distinct reader partitions"
-                : t.permutations() + " random reader permutations";
-        String relation = t.pValue() <= s.alpha() && t.canReachAlpha() ? "<=" : ">";
+        String pseudoF = "pseudo-F " + Wording.plain(t.pseudoF(), 3);
         if (!t.canReachAlpha()) {
-            return String.format(Locale.ROOT,
-                    "the permutation test gives p = %.4g (%s; pseudo-F %.3g), and the design cannot reach alpha = %.4g",
-                    t.pValue(), how, t.pseudoF(), s.alpha());
+            return String.format(Locale.ROOT, "the permutation test gives %s; %s; the design cannot reach %s",
+                    Wording.pValue(t), pseudoF, Wording.alpha(s.alpha()));
         }
-        return String.format(Locale.ROOT, "the permutation test gives p = %.4g %s alpha = %.4g (%s; pseudo-F %.3g)",
-                t.pValue(), relation, s.alpha(), how, t.pseudoF());
+        String relation = t.pValue() <= s.alpha() ? "at most" : "above";
+        return String.format(Locale.ROOT, "the permutation test gives %s, %s %s; %s", Wording.pValue(t), relation,
+                Wording.alpha(s.alpha()), pseudoF);
     }
 }
