@@ -398,8 +398,8 @@ public final class VerdictRules {
                         g.level() == EmptyGroup.Level.CENTRE ? "at centre " + g.group() : "in reader " + g.group()
                                 + "'s masks");
         return String.format(Locale.ROOT, "%s: all %d mask%s empty for this structure, which most other readers draw "
-                + "on %d of %s cases%s.", who, g.masks(), g.masks() == 1 ? " is" : "s are", g.othersDraw(),
-                g.level() == EmptyGroup.Level.CENTRE ? "its" : "the reader's", labels);
+                + "on %d of %s cases%s", who, g.masks(), g.masks() == 1 ? " is" : "s are", g.othersDraw(),
+                g.level() == EmptyGroup.Level.CENTRE ? "its" : "the reader's", labels.isEmpty() ? "." : labels);
     }
 
     /**
