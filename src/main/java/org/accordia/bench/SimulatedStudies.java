@@ -4,11 +4,9 @@ import java.util.List;
 import java.util.Locale;
 import org.accordia.analysis.AnalysisOptions;
 import org.accordia.analysis.CaseSource;
-import org.accordia.analysis.LabelResult;
 import org.accordia.analysis.StudyAnalysis;
 import org.accordia.analysis.StudyResult;
 import org.accordia.demo.DemoGenerator;
-import org.accordia.demo.DemoSpec;
 import org.accordia.shift.ShiftSettings;
 import org.accordia.study.Protocol;
 import org.accordia.study.Structure;
@@ -59,11 +57,6 @@ public final class SimulatedStudies implements Calibration.StudyRunner {
         return protocol;
     }
 
-    /** The centre the generator shifts in studies made from {@code base}. */
-    public String shiftedCentre(DemoSpec base) {
-        return DemoGenerator.inMemory(base.withPlants(1.0, 0, 0)).truth().shiftedCentre();
-    }
-
     /** The shift settings of one run. */
     ShiftSettings settings(long seed) {
         ShiftSettings s = StudyAnalysis.shiftSettings(protocol.withSeed(seed));
@@ -83,14 +76,15 @@ public final class SimulatedStudies implements Calibration.StudyRunner {
                 ? ", variance-component parametric bootstraps off (intervals and LRT resamples 0)" : "");
     }
 
-    @Override
-    public Calibration.ShiftOutcome run(DemoSpec spec, long analysisSeed) throws Exception {
-        DemoGenerator.InMemory demo = DemoGenerator.inMemory(spec);
+    /** The full analysis of one generated study. */
+    public StudyResult analyse(DemoGenerator.InMemory demo, long analysisSeed) throws Exception {
         CaseSource source = CaseSource.of(demo.caseIds(), demo::load, null);
-        StudyResult r = StudyAnalysis.run(source, protocol.withSeed(analysisSeed),
+        return StudyAnalysis.run(source, protocol.withSeed(analysisSeed),
             new AnalysisOptions(1, settings(analysisSeed), false));
-        LabelResult l = r.labels().get(0);
-        return new Calibration.ShiftOutcome(l.summary().shift().flaggedCentres(), l.shift().centreEffects(),
-            l.shift().permutation().pValue());
+    }
+
+    @Override
+    public ScenarioOutcome run(DemoGenerator.InMemory demo, long analysisSeed) throws Exception {
+        return ScenarioOutcome.of(analyse(demo, analysisSeed), STRUCTURE);
     }
 }

@@ -3,41 +3,54 @@ package org.accordia.cli;
 import java.io.PrintWriter;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.accordia.bench.BenchNumbers;
 import org.accordia.bench.BinomialInterval;
 import org.accordia.bench.Calibration;
 import org.accordia.bench.Machine;
+import org.accordia.bench.Medians;
+import org.accordia.bench.Scenario;
+import org.accordia.bench.ScenarioOutcome;
 import org.accordia.bench.SimulatedStudies;
 import org.accordia.demo.DemoSpec;
+import org.accordia.study.Protocol;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 
 /**
- * {@code accordia calibrate}: checks the annotation-shift flag by simulation (docs/calibration.md):
- * its false-positive rate on studies without a centre effect and how often it names the right
- * centre and direction when one centre draws a wider margin.
+ * {@code accordia calibrate}: checks the centre and reader findings by simulation
+ * (docs/calibration.md): for each scenario (null, a centre wider or narrower, a local inclusion,
+ * one wide reader, hard cases, 2/4/6 centres, unequal rosters) how often the analysis flags which
+ * centre, reviews, names readers, covers the planted effect and states what the design cannot show.
  */
 @Command(
     name = "calibrate",
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
-        "Simulates seeded studies in memory (no file is written) and runs the full analysis on "
-            + "each: null studies (reader noise only) and studies where one centre draws a wider margin. "
-            + "Prints the flag's false-positive rate and its power (right centre, right direction) with "
-            + "exact 95% intervals, and PASS or FAIL against the two criteria."
+        "Simulates seeded studies in memory (no file is written) and runs the full analysis on each, "
+            + "scenario by scenario: null, one centre wider or narrower, a local one-sided inclusion at one centre, "
+            + "one wide reader, hard cases, 2, 4 and 6 centres, unequal rosters with a one-reader centre. Prints "
+            + "each criterion's count, rate and exact 95% interval with PASS or FAIL."
     })
 public final class CalibrateCommand implements Callable<Integer> {
 
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
 
+    @Option(names = "--scenario", paramLabel = "NAME", split = ",",
+        description = "Scenarios to run, comma-separated (default: all): null, plus, minus, inclusion, wide-reader,"
+            + " hard, centres-2, centres-4, centres-6, unequal.")
+    List<String> scenarios = new ArrayList<>();
+
     @Option(names = "--runs", paramLabel = "N",
-        description = "Null runs, and as many shifted runs (default: ${DEFAULT-VALUE}).")
-    int runs = 200;
+        description = "Runs of every chosen scenario (default: 200 for null and plus, 100 for the others).")
+    int runs;
 
     @Option(names = "--seed", paramLabel = "N", description = "Master seed (default: ${DEFAULT-VALUE}).")
     long seed = 20261202L;
@@ -47,8 +60,17 @@ public final class CalibrateCommand implements Callable<Integer> {
     int threads = Runtime.getRuntime().availableProcessors();
 
     @Option(names = "--shift-mm", paramLabel = "MM",
-        description = "Margin shift of the shifted centre in the shifted runs, mm (default: ${DEFAULT-VALUE}).")
+        description = "Margin of the shifted centre (plus: wider, minus: narrower, centres-N: wider) and of the wide"
+            + " reader, mm (default: ${DEFAULT-VALUE}).")
     double shiftMm = 1.5;
+
+    @Option(names = "--inclusion-mm", paramLabel = "MM",
+        description = "How far the local inclusion reaches beyond the lesion, mm (default: ${DEFAULT-VALUE}).")
+    double inclusionMm = 6.0;
+
+    @Option(names = "--hard-cases", paramLabel = "N",
+        description = "Hard cases in the hard scenario (default: ${DEFAULT-VALUE}).")
+    int hardCases = 3;
 
     @Option(names = "--cases", paramLabel = "N", description = "Cases per study (default: ${DEFAULT-VALUE}).")
     int cases = 12;
@@ -72,10 +94,10 @@ public final class CalibrateCommand implements Callable<Integer> {
     @Option(names = "--consensus-region", paramLabel = "REGION",
         description = "Where STAPLE runs: grid or union_margin (protocol key consensus.region; default: the protocol"
             + " default, ${DEFAULT-VALUE}).")
-    String region = org.accordia.study.Protocol.defaults().consensus().region().key();
+    String region = Protocol.defaults().consensus().region().key();
 
     @Option(names = "--full-resampling",
-        description = "Keep the variance-component bootstraps at their defaults (slower; they do not enter the flag).")
+        description = "Keep the variance-component bootstraps at their defaults (slower; they do not enter the findings).")
     boolean fullResampling;
 
     @Override
@@ -83,21 +105,34 @@ public final class CalibrateCommand implements Callable<Integer> {
         if (size.length != 3 || spacing.length != 3) {
             throw new CommandLine.ParameterException(spec.commandLine(), "--size and --spacing need three values X,Y,Z");
         }
-        if (runs < 1 || threads < 1 || cases < 2) {
+        if (runs < 0 || threads < 1 || cases < 2 || hardCases < 0 || hardCases > cases) {
             throw new CommandLine.ParameterException(spec.commandLine(),
-                "--runs and --threads must be at least 1, --cases at least 2");
+                "--runs must not be negative, --threads must be at least 1, --cases at least 2, --hard-cases in 0..cases");
         }
-        DemoSpec base;
         Calibration.Settings settings;
         SimulatedStudies runner;
         try {
-            base = new DemoSpec(seed, cases, 3, 3, size[0], size[1], size[2], spacing[0], spacing[1], spacing[2], 0, 0,
-                0, readerBiasMm, noiseMm);
-            org.accordia.study.Protocol.ConsensusRegion cr = java.util.Arrays.stream(
-                    org.accordia.study.Protocol.ConsensusRegion.values()).filter(x -> x.key().equals(region)).findFirst()
+            if (!(shiftMm != 0 && Double.isFinite(shiftMm)) || !(inclusionMm > 0 && inclusionMm <= 20)) {
+                throw new IllegalArgumentException("--shift-mm must be a non-zero number and --inclusion-mm lie in (0, 20]");
+            }
+            DemoSpec base = new DemoSpec(seed, cases, 3, 3, size[0], size[1], size[2], spacing[0], spacing[1], spacing[2],
+                0, 0, 0, readerBiasMm, noiseMm);
+            Protocol.ConsensusRegion cr = Arrays.stream(Protocol.ConsensusRegion.values())
+                .filter(x -> x.key().equals(region)).findFirst()
                 .orElseThrow(() -> new IllegalArgumentException("--consensus-region must be grid or union_margin"));
+            List<Scenario> all = Scenario.all(shiftMm, inclusionMm, hardCases);
+            List<Scenario> chosen = new ArrayList<>();
+            for (String k : scenarios) {
+                Scenario sc = all.stream().filter(x -> x.key().equals(k.trim())).findFirst()
+                    .orElseThrow(() -> new IllegalArgumentException("unknown scenario '" + k + "' (known: "
+                        + String.join(", ", Scenario.keys()) + ")"));
+                if (!chosen.contains(sc)) {
+                    chosen.add(sc);
+                }
+            }
             runner = new SimulatedStudies(!fullResampling, cr);
-            settings = new Calibration.Settings(runs, seed, threads, shiftMm, runner.alpha(), base);
+            settings = new Calibration.Settings(seed, threads, runner.alpha(), base, chosen.isEmpty() ? all : chosen,
+                runs);
         } catch (IllegalArgumentException e) {
             throw new CommandLine.ParameterException(spec.commandLine(), e.getMessage());
         }
@@ -106,89 +141,87 @@ public final class CalibrateCommand implements Callable<Integer> {
         w.printf(Locale.ROOT, "machine: %s (at start)%n", Machine.now().describe());
         w.flush();
         long t0 = System.nanoTime();
-        Calibration.Result r = Calibration.run(settings, runner.shiftedCentre(base), runner);
+        Calibration.Result r = Calibration.run(settings, runner);
         double seconds = (System.nanoTime() - t0) / 1e9;
         print(w, r, runner, seconds);
         w.flush();
         return ExitCodes.OK;
     }
 
-    static String largestEffect(Calibration.Run x) {
-        if (x.failed()) {
-            return null;
-        }
-        return x.outcome().centreEffects().stream().filter(e -> !Double.isNaN(e.signedSurfaceMm()))
-            .max(java.util.Comparator.comparingDouble(e -> Math.abs(e.signedSurfaceMm())))
-            .map(org.accordia.shift.GroupEffect::group).orElse(null);
-    }
-
     static void print(PrintWriter w, Calibration.Result r, SimulatedStudies runner, double seconds) {
         Calibration.Settings s = r.settings();
         DemoSpec b = s.base();
-        w.printf(Locale.ROOT, "settings: %d null + %d shifted studies, master seed %d; each study %d centres x %d readers"
-                + " x %d cases, %dx%dx%d voxels at %sx%sx%s mm, reader bias uniform +-%s mm, smooth boundary noise sd %s mm,"
-                + " no missed lesion, no hard case%n", s.runs(), s.runs(), s.seed(), b.centres(), b.readersPerCentre(),
-            b.cases(), b.nx(), b.ny(), b.nz(), org.accordia.bench.BenchNumbers.text(b.sxMm()), org.accordia.bench.BenchNumbers.text(b.syMm()),
-            org.accordia.bench.BenchNumbers.text(b.szMm()), org.accordia.bench.BenchNumbers.text(b.readerBiasMm()), org.accordia.bench.BenchNumbers.text(b.noiseAmplitudeMm()));
-        w.printf(Locale.ROOT, "shifted runs: centre %s draws its margin %+.2f mm wider%n", r.shiftedCentre(), s.shiftMm());
+        w.printf(Locale.ROOT, "settings: master seed %d; every study %d cases, %dx%dx%d voxels at %sx%sx%s mm, reader bias"
+                + " uniform +-%s mm, smooth boundary noise sd %s mm, no missed lesion; roster and plants per scenario%n",
+            s.seed(), b.cases(), b.nx(), b.ny(), b.nz(), BenchNumbers.text(b.sxMm()), BenchNumbers.text(b.syMm()),
+            BenchNumbers.text(b.szMm()), BenchNumbers.text(b.readerBiasMm()), BenchNumbers.text(b.noiseAmplitudeMm()));
         w.printf(Locale.ROOT, "analysis: %s%n", runner.describe());
-        w.printf(Locale.ROOT, "flag: a centre flagged by the verdict rules (permutation test p <= alpha = %s AND a centre"
-            + " effect interval entirely beyond the minimum effect) on structure '%s'%n", org.accordia.bench.BenchNumbers.text(s.alpha()),
-            runner.structureName());
-        w.printf(Locale.ROOT, "time: %.1f s (%d threads)%n%n", seconds, s.threads());
-        BinomialInterval nr = r.nullRate();
-        double se = Math.sqrt(s.alpha() * (1 - s.alpha()) / s.runs());
-        w.printf(Locale.ROOT, "null false-positive rate: %d / %d = %.4f, 95%% CI [%.4f, %.4f] (Clopper-Pearson)%n",
-            nr.successes(), nr.trials(), nr.rate(), nr.lower(), nr.upper());
-        w.printf(Locale.ROOT, "  criterion: <= alpha + 2 SE = %.4f + 2 x %.4f = %.4f  -> %s%n", s.alpha(), se,
-            s.nullLimit(), r.nullPasses() ? "PASS" : "FAIL");
-        BinomialInterval pw = r.power();
-        w.printf(Locale.ROOT, "power (right centre and direction): %d / %d = %.4f, 95%% CI [%.4f, %.4f] (Clopper-Pearson)%n",
-            pw.successes(), pw.trials(), pw.rate(), pw.lower(), pw.upper());
-        w.printf(Locale.ROOT, "  criterion: >= 0.90  -> %s%n", r.powerPasses() ? "PASS" : "FAIL");
-        List<Calibration.Run> failed = r.failedRuns();
-        w.printf(Locale.ROOT, "failed analyses: %d (counted as neither a flag nor a detection)%n", failed.size());
-        for (Calibration.Run f : failed.subList(0, Math.min(10, failed.size()))) {
-            w.printf(Locale.ROOT, "  %s run %d (generator seed %d): %s%n", f.shifted() ? "shifted" : "null", f.index(),
-                f.generatorSeed(), f.error());
+        w.printf(Locale.ROOT, "alpha = %s; '<= %.4f'-type limits are alpha + 2 SE for the scenario's runs; intervals"
+            + " are exact 95%% Clopper-Pearson; a failed analysis counts against every criterion%n",
+            BenchNumbers.text(s.alpha()), s.nullLimit(200));
+        w.printf(Locale.ROOT, "time: %.1f s in all (%d threads)%n", seconds, s.threads());
+        for (Calibration.ScenarioResult sr : r.scenarios()) {
+            Scenario sc = sr.scenario();
+            w.println();
+            w.printf(Locale.ROOT, "scenario %s: %s (%d runs, %.1f s)%n", sc.key(), sc.title(), sr.runs().size(),
+                sr.seconds());
+            w.printf(Locale.ROOT, "  generator: %s%n", sc.parameters());
+            w.printf(Locale.ROOT, "  design: %s distinct reader partitions, %s%s%n", sc.distinctPartitions(),
+                sc.canReachAlpha(s.alpha()) ? "alpha is reachable" : "alpha cannot be reached",
+                sc.hasOneReaderCentre() ? "; a centre with one reader" : "");
+            w.printf(Locale.ROOT, "  %-72s %9s %7s %17s %-30s %s%n", "criterion", "count", "rate", "95% CI", "criterion",
+                "result");
+            for (Calibration.Criterion c : sr.criteria()) {
+                row(w, c);
+            }
+            w.println("  diagnostics:");
+            for (Calibration.Criterion c : sr.diagnostics()) {
+                row(w, c);
+            }
+            effects(w, sr);
+            List<Calibration.Run> failed = sr.failedRuns();
+            w.printf(Locale.ROOT, "  failed analyses: %d%n", failed.size());
+            for (Calibration.Run f : failed.subList(0, Math.min(10, failed.size()))) {
+                w.printf(Locale.ROOT, "    run %d (generator seed %d, analysis seed %d): %s%n", f.index(),
+                    f.generatorSeed(), f.analysisSeed(), f.error());
+            }
+            w.printf(Locale.ROOT, "  scenario: %s%n", sr.passes() ? "PASS" : "FAIL");
         }
         w.println();
-        w.println("diagnostics:");
-        long nullTest = r.nullRuns().stream().filter(x -> !x.failed() && x.outcome().pValue() <= s.alpha()).count();
-        BinomialInterval nt = BinomialInterval.of95((int) nullTest, s.runs());
-        w.printf(Locale.ROOT, "  null runs with permutation p <= alpha (test alone): %d / %d = %.4f, 95%% CI [%.4f, %.4f]%n",
-            nullTest, s.runs(), nt.rate(), nt.lower(), nt.upper());
-        long shiftTest = r.shiftedRuns().stream().filter(x -> !x.failed() && x.outcome().pValue() <= s.alpha()).count();
-        w.printf(Locale.ROOT, "  shifted runs with permutation p <= alpha: %d / %d; flagged at all: %d / %d;"
-            + " flagged but wrong centre or direction: %d%n", shiftTest, s.runs(), r.shiftedFlags(), s.runs(),
-            r.shiftedFlags() - r.correctDetections());
-        long among = r.shiftedRuns().stream().filter(x -> !x.failed() && x.outcome().flaggedCentres().contains(r.shiftedCentre()))
-            .count();
-        long largest = r.shiftedRuns().stream().filter(x -> r.shiftedCentre().equals(largestEffect(x))).count();
-        long all = r.shiftedRuns().stream().filter(x -> !x.failed() && x.outcome().flaggedCentres().size() == x.outcome()
-            .centreEffects().size()).count();
-        w.printf(Locale.ROOT, "  shifted runs: shifted centre among the flagged centres %d / %d; shifted centre has the"
-            + " largest |signed-surface effect| %d / %d; every centre flagged %d / %d%n", among, s.runs(), largest,
-            s.runs(), all, s.runs());
-        double[] eff = r.shiftedRuns().stream().filter(x -> !x.failed()).flatMap(x -> x.outcome().centreEffects().stream()
-            .filter(e -> e.group().equals(r.shiftedCentre()))).mapToDouble(e -> e.signedSurfaceMm()).toArray();
-        double[] others = r.shiftedRuns().stream().filter(x -> !x.failed()).flatMap(x -> x.outcome().centreEffects().stream()
-            .filter(e -> !e.group().equals(r.shiftedCentre()))).mapToDouble(e -> e.signedSurfaceMm()).toArray();
-        double[] lo = r.shiftedRuns().stream().filter(x -> !x.failed()).flatMap(x -> x.outcome().centreEffects().stream()
-            .filter(e -> e.group().equals(r.shiftedCentre()))).mapToDouble(e -> e.signedSurfaceLoMm()).toArray();
-        w.printf(Locale.ROOT, "  shifted centre's signed-surface effect: median %.3f mm (lower interval limit median %.3f mm)"
-            + " against the planted %+.2f mm%n", org.accordia.bench.Medians.of(eff), org.accordia.bench.Medians.of(lo),
-            s.shiftMm());
-        w.printf(Locale.ROOT, "  the other centres' signed-surface effects in the shifted runs: median %.3f mm%n",
-            org.accordia.bench.Medians.of(others));
-        double[] nullMax = r.nullRuns().stream().filter(x -> !x.failed()).mapToDouble(x -> x.outcome().centreEffects().stream()
-            .mapToDouble(e -> Math.abs(e.signedSurfaceMm())).max().orElse(Double.NaN)).toArray();
-        w.printf(Locale.ROOT, "  null runs: median of the largest |centre effect| %.3f mm%n",
-            org.accordia.bench.Medians.of(nullMax));
-        double[] nullAll = r.nullRuns().stream().filter(x -> !x.failed()).flatMap(x -> x.outcome().centreEffects().stream())
-            .mapToDouble(e -> e.signedSurfaceMm()).toArray();
-        w.printf(Locale.ROOT, "  null runs: median centre effect %.3f mm (0 expected without a systematic bias of the"
-            + " reference)%n", org.accordia.bench.Medians.of(nullAll));
-        w.printf(Locale.ROOT, "%noverall: %s%n", r.nullPasses() && r.powerPasses() ? "PASS" : "FAIL");
+        w.println("summary (markdown):");
+        w.println();
+        w.println("| scenario | criterion | count | rate | 95 % CI | criterion | result |");
+        w.println("|---|---|---|---|---|---|---|");
+        for (Calibration.ScenarioResult sr : r.scenarios()) {
+            for (Calibration.Criterion c : sr.criteria()) {
+                BinomialInterval ci = c.interval();
+                w.printf(Locale.ROOT, "| %s | %s | %d / %d | %.3f | [%.3f, %.3f] | %s | %s |%n", sr.scenario().key(),
+                    c.name(), c.count(), c.trials(), ci.rate(), ci.lower(), ci.upper(), c.criterionText(), c.result());
+            }
+        }
+        w.printf(Locale.ROOT, "%noverall: %s%n", r.passes() ? "PASS" : "FAIL");
+    }
+
+    private static void row(PrintWriter w, Calibration.Criterion c) {
+        BinomialInterval ci = c.interval();
+        w.printf(Locale.ROOT, "  %-72s %4d/%-4d %7.4f [%.4f, %.4f] %-30s %s%n", c.name(), c.count(), c.trials(),
+            ci.rate(), ci.lower(), ci.upper(), c.criterionText(), c.result());
+    }
+
+    /** The reference centre's reported effect against the planted one, and the verdict rules seen. */
+    private static void effects(PrintWriter w, Calibration.ScenarioResult sr) {
+        String c = sr.referenceCentre();
+        List<Calibration.Run> ok = sr.runs().stream().filter(x -> !x.failed()).toList();
+        double[] est = ok.stream().map(x -> x.outcome().effectOf(c)).filter(e -> e != null)
+            .mapToDouble(ScenarioOutcome.CentreEstimate::estimateMm).toArray();
+        double[] width = ok.stream().map(x -> x.outcome().effectOf(c)).filter(e -> e != null)
+            .mapToDouble(e -> e.hiMm() - e.loMm()).toArray();
+        double[] planted = ok.stream().map(x -> x.plantedDeltaMm().get(c)).filter(d -> d != null)
+            .mapToDouble(Double::doubleValue).toArray();
+        w.printf(Locale.ROOT, "  %s: reported effect median %+.3f mm, interval width median %.3f mm; planted effect"
+            + " median %+.3f mm%n", c, Medians.of(est), Medians.of(width), Medians.of(planted));
+        java.util.Map<String, Long> rules = new java.util.TreeMap<>();
+        ok.forEach(x -> rules.merge(x.outcome().verdict() + " (" + x.outcome().rule() + ")", 1L, Long::sum));
+        w.printf(Locale.ROOT, "  verdicts: %s%n", rules);
     }
 }

@@ -199,7 +199,16 @@ public final class DemoGenerator {
      * asked for (the same masks, bit for bit, as the files {@link #generate} writes). Thread-safe.
      */
     public static InMemory inMemory(DemoSpec spec) {
-        return new InMemory(spec, plan(spec),
+        return inMemory(spec, ExtraPlants.NONE);
+    }
+
+    /**
+     * The study of {@code spec} with the extra plants of simulations (unequal rosters, one wide
+     * reader, a local inclusion at one centre), held in memory; {@link ExtraPlants#NONE} gives the
+     * same study as {@link #inMemory(DemoSpec)}.
+     */
+    public static InMemory inMemory(DemoSpec spec, ExtraPlants extras) {
+        return new InMemory(spec, plan(spec, extras),
             Geometry.axisAligned(spec.nx(), spec.ny(), spec.nz(), spec.sxMm(), spec.syMm(), spec.szMm()));
     }
 
@@ -246,6 +255,49 @@ public final class DemoGenerator {
                 new ArrayList<>(byReader.values()));
         }
 
+        /** The centres, in order (the generator's shifted centre is the second one). */
+        public List<String> centres() {
+            return centreNames(spec.centres());
+        }
+
+        /** The reader who draws wider ({@link ExtraPlants#wideReaderCentre()}), or null. */
+        public org.accordia.study.ReaderId wideReader() {
+            return plan.readers.stream().filter(r -> r.extraMm != 0).findFirst()
+                .map(r -> new org.accordia.study.ReaderId(r.name, r.centre)).orElse(null);
+        }
+
+        /** The centre whose readers add the local inclusion, or null. */
+        public String inclusionCentre() {
+            return plan.inclusionCentre >= 0 ? centreNames(spec.centres()).get(plan.inclusionCentre) : null;
+        }
+
+        /**
+         * The planted shape of one case without any reader: {@code { f(x) < marginMm }} (the truth
+         * shape grown by {@code marginMm}; no reader bias, no reader noise), united with the case's
+         * local inclusion when {@code withInclusion} and the study has one; the missed-lesion plant
+         * does not apply. Full grid, x fastest. {@code marginMm} must lie within the generator's
+         * bounding box: |marginMm| at most the largest planted centre or reader margin.
+         */
+        public boolean[] plantedShape(String caseId, double marginMm, boolean withInclusion) {
+            CaseShape sh = shape(spec, plan, indexOf(caseId), geometry, false);
+            boolean[] out = new boolean[spec.nx() * spec.ny() * spec.nz()];
+            int nxy = spec.nx() * spec.ny();
+            int q = 0;
+            for (int k = 0; k < sh.bz; k++) {
+                for (int j = 0; j < sh.by; j++) {
+                    int row = sh.i0[0] + spec.nx() * (sh.i0[1] + j) + nxy * (sh.i0[2] + k);
+                    for (int i = 0; i < sh.bx; i++, q++) {
+                        double f = Math.min(sh.f1[q], sh.f2[q]);
+                        if (withInclusion && sh.fb != null) {
+                            f = Math.min(f, sh.fb[q]);
+                        }
+                        out[row + i] = f < marginMm;
+                    }
+                }
+            }
+            return out;
+        }
+
         /** One case's phantom image (generates the case again). */
         public ImageVolume image(String caseId) {
             return generateCase(spec, plan, indexOf(caseId), geometry).image;
@@ -282,21 +334,39 @@ public final class DemoGenerator {
 
     // ---------------------------------------------------------------- the plan (who plants what)
 
-    record Reader(String centre, String name, int centreIndex, double biasMm) {
+    /**
+     * @param biasMm the reader's personal margin bias
+     * @param extraMm a further margin of the one wide reader ({@link ExtraPlants}), else 0
+     */
+    record Reader(String centre, String name, int centreIndex, double biasMm, double extraMm) {
     }
 
     record Plan(List<Reader> readers, List<String> caseIds, int shiftedCentre, int missingReader,
-                boolean[] hard, boolean[] missed, boolean[] secondLesion, boolean[] core, DemoTruth truth) {
+                boolean[] hard, boolean[] missed, boolean[] secondLesion, boolean[] core, DemoTruth truth,
+                int inclusionCentre, double inclusionMm) {
     }
 
     static Plan plan(DemoSpec spec) {
+        return plan(spec, ExtraPlants.NONE);
+    }
+
+    static Plan plan(DemoSpec spec, ExtraPlants extras) {
+        if (!extras.readersByCentre().isEmpty() && extras.readersByCentre().size() != spec.centres()) {
+            throw new IllegalArgumentException("the roster names " + extras.readersByCentre().size()
+                + " centres but the study has " + spec.centres());
+        }
+        if (extras.wideReaderCentre() >= spec.centres() || extras.inclusionCentre() >= spec.centres()
+            || extras.wideReaderCentre() >= 0 && extras.wideReaderIndex() >= extras.readersAt(spec, extras.wideReaderCentre())) {
+            throw new IllegalArgumentException("the wide reader or the inclusion centre is not in the study");
+        }
         SplittableRandom rng = new SplittableRandom(mix(spec.seed(), 1));
         List<String> centres = centreNames(spec.centres());
         List<Reader> readers = new ArrayList<>();
         for (int c = 0; c < centres.size(); c++) {
-            for (int k = 0; k < spec.readersPerCentre(); k++) {
+            for (int k = 0; k < extras.readersAt(spec, c); k++) {
                 double bias = (rng.nextDouble() * 2 - 1) * spec.readerBiasMm();
-                readers.add(new Reader(centres.get(c), readerName(centres.get(c), k), c, bias));
+                double extra = c == extras.wideReaderCentre() && k == extras.wideReaderIndex() ? extras.wideReaderMm() : 0;
+                readers.add(new Reader(centres.get(c), readerName(centres.get(c), k), c, bias, extra));
             }
         }
         List<String> caseIds = new ArrayList<>();
@@ -306,8 +376,14 @@ public final class DemoGenerator {
         int shifted = spec.centreShiftMm() != 0 && spec.centres() > 1 ? 1 : -1;
         // the reader who misses the second lesion: at a centre other than the shifted one
         int missCentre = spec.centres() > 1 ? (shifted == 0 ? 1 : 0) : 0;
-        int missingReader = spec.missedLesionCases() > 0
-            ? missCentre * spec.readersPerCentre() + rng.nextInt(spec.readersPerCentre()) : -1;
+        int missingReader = -1;
+        if (spec.missedLesionCases() > 0) {
+            int before = 0;
+            for (int c = 0; c < missCentre; c++) {
+                before += extras.readersAt(spec, c);
+            }
+            missingReader = before + rng.nextInt(extras.readersAt(spec, missCentre));
+        }
 
         int n = spec.cases();
         int[] order = permutation(n, rng);
@@ -357,16 +433,29 @@ public final class DemoGenerator {
         if (spec.hardCases() > 0) {
             planted.add(spec.hardCases() + " hard case(s) with large disagreement");
         }
+        for (Reader r : readers) {
+            if (r.extraMm != 0) {
+                planted.add(String.format(Locale.ROOT, "reader %s/%s draws a margin %+.2f mm wider than its own bias",
+                    r.centre, r.name, r.extraMm));
+            }
+        }
+        int inclusion = extras.inclusionMm() > 0 ? extras.inclusionCentre() : -1;
+        if (inclusion >= 0) {
+            planted.add(String.format(Locale.ROOT, "the readers of centre %s add a local inclusion reaching %.1f mm"
+                + " out on one side of the lesion", centres.get(inclusion), extras.inclusionMm()));
+        }
         planted.add("a core (label 2) inside the lesion (label 1) in some cases");
         String scenario = "Fictional lesion-segmentation pilot across " + spec.centres() + " centre(s) in fictional "
-            + "countries with " + spec.readersPerCentre() + " reader(s) each; every reader draws a smooth truth shape "
+            + "countries with " + (extras.readersByCentre().isEmpty() ? String.valueOf(spec.readersPerCentre())
+                : extras.readersByCentre().toString()) + " reader(s) each; every reader draws a smooth truth shape "
             + "with a personal margin bias and smooth boundary noise. Planted: " + String.join("; ", planted) + ".";
         DemoTruth truth = new DemoTruth(scenario, spec.seed(), spec, infos,
             shifted >= 0 ? centres.get(shifted) : null, shifted >= 0 ? spec.centreShiftMm() : 0.0,
             missingReader >= 0 ? readers.get(missingReader).centre : null,
             missingReader >= 0 ? readers.get(missingReader).name : null,
             names(caseIds, missed), names(caseIds, hard), names(caseIds, core), names(caseIds, second), bias);
-        return new Plan(readers, caseIds, shifted, missingReader, hard, missed, second, core, truth);
+        return new Plan(readers, caseIds, shifted, missingReader, hard, missed, second, core, truth, inclusion,
+            inclusion >= 0 ? extras.inclusionMm() : 0);
     }
 
     private static List<String> names(List<String> caseIds, boolean[] flags) {
@@ -444,15 +533,17 @@ public final class DemoGenerator {
     record CaseData(List<LabelVolume> masks, ImageVolume image) {
     }
 
-    static CaseData generateCase(DemoSpec spec, Plan plan, int caseIndex, Geometry geometry) {
-        return generateCase(spec, plan, caseIndex, geometry, false);
+    /**
+     * The reader-independent part of one case: the box (voxel origin {@code i0}, size bx × by × bz;
+     * millimetre corners lo, hi for the smooth fields) and, over the box, the main lesion's shape
+     * function f1, the second lesion's f2 (+inf when none) and the local inclusion's fb (null when
+     * the study has none), each with the case's deformation.
+     */
+    record CaseShape(int[] i0, int bx, int by, int bz, double[] lo, double[] hi, float[] f1, float[] f2, float[] fb,
+                     boolean hard, boolean core, double coreDepth, double noiseSigma) {
     }
 
-    /**
-     * One case's masks and image. {@code wholeGrid} evaluates the shape on every voxel instead of
-     * the bounding box only: the slow oracle the tests compare the fast path against.
-     */
-    static CaseData generateCase(DemoSpec spec, Plan plan, int caseIndex, Geometry geometry, boolean wholeGrid) {
+    static CaseShape shape(DemoSpec spec, Plan plan, int caseIndex, Geometry geometry, boolean wholeGrid) {
         SplittableRandom rng = new SplittableRandom(mix(spec.seed(), 2, caseIndex));
         double ex = spec.nx() * spec.sxMm();
         double ey = spec.ny() * spec.syMm();
@@ -483,7 +574,8 @@ public final class DemoGenerator {
         // bounding box holding every reader's foreground and the image's lesion contrast
         double deformSigma = 0.08 * main.g();
         double maxThreshold = Math.abs(spec.centreShiftMm()) + spec.readerBiasMm() + (hard ? HARD_BIAS_MM : 0)
-            + 2.5 * noiseSigma + 2.5 * deformSigma + 1.0;
+            + 2.5 * noiseSigma + 2.5 * deformSigma + 1.0 + plan.readers.stream().mapToDouble(r -> Math.abs(r.extraMm))
+            .max().orElse(0);
         double margin = Math.max(maxThreshold, 6.0);
         double[] lo = new double[3];
         double[] hi = new double[3];
@@ -499,6 +591,29 @@ public final class DemoGenerator {
             for (int d = 0; d < 3; d++) {
                 lo[d] = Math.min(lo[d], c2[d] - h2[d]);
                 hi[d] = Math.max(hi[d], c2[d] + h2[d]);
+            }
+        }
+        // the local inclusion: a ball of radius 2/3 h whose far side lies h out along the lesion's
+        // outward normal at a point of its surface in a direction (x-y plane) drawn per case
+        double[] ball = null;
+        if (plan.inclusionCentre >= 0) {
+            double h0 = plan.inclusionMm;
+            double phi = new SplittableRandom(mix(spec.seed(), 7, caseIndex)).nextDouble() * 2 * Math.PI;
+            double dx = StrictMath.cos(phi);
+            double dy = StrictMath.sin(phi);
+            double rho = main.f(main.cx + dx, main.cy + dy, main.cz) / main.g() + 1;
+            double px = main.cx + dx / rho;
+            double py = main.cy + dy / rho;
+            double u = ((px - main.cx) * main.cos + (py - main.cy) * main.sin) / main.a;
+            double v = (-(px - main.cx) * main.sin + (py - main.cy) * main.cos) / main.b;
+            double nx = u / main.a * main.cos - v / main.b * main.sin;
+            double ny = u / main.a * main.sin + v / main.b * main.cos;
+            double nn = Math.hypot(nx, ny);
+            double radius = 2.0 / 3.0 * h0;
+            ball = new double[] {px + (h0 - radius) * nx / nn, py + (h0 - radius) * ny / nn, main.cz, radius};
+            for (int d = 0; d < 3; d++) {
+                lo[d] = Math.min(lo[d], ball[d] - radius - margin);
+                hi[d] = Math.max(hi[d], ball[d] + radius + margin);
             }
         }
         double[] sp = {spec.sxMm(), spec.syMm(), spec.szMm()};
@@ -523,6 +638,7 @@ public final class DemoGenerator {
             new SplittableRandom(mix(spec.seed(), 3, caseIndex)));
         float[] f1 = new float[boxVoxels];
         float[] f2 = new float[boxVoxels];
+        float[] fb = ball == null ? null : new float[boxVoxels];
         int q = 0;
         for (int k = 0; k < bz; k++) {
             double z = (i0[2] + k) * sp[2];
@@ -533,38 +649,67 @@ public final class DemoGenerator {
                     double d = deform.value(x, y, z);
                     f1[q] = (float) (main.f(x, y, z) + d);
                     f2[q] = second == null ? Float.POSITIVE_INFINITY : (float) (second.f(x, y, z) + d);
+                    if (fb != null) {
+                        double ux = x - ball[0];
+                        double uy = y - ball[1];
+                        double uz = z - ball[2];
+                        fb[q] = (float) (Math.sqrt(ux * ux + uy * uy + uz * uz) - ball[3] + d);
+                    }
                 }
             }
         }
 
+        return new CaseShape(i0, bx, by, bz, lo, hi, f1, f2, fb, hard, core, coreDepth, noiseSigma);
+    }
+
+    static CaseData generateCase(DemoSpec spec, Plan plan, int caseIndex, Geometry geometry) {
+        return generateCase(spec, plan, caseIndex, geometry, false);
+    }
+
+    /**
+     * One case's masks and image. {@code wholeGrid} evaluates the shape on every voxel instead of
+     * the bounding box only: the slow oracle the tests compare the fast path against.
+     */
+    static CaseData generateCase(DemoSpec spec, Plan plan, int caseIndex, Geometry geometry, boolean wholeGrid) {
+        CaseShape sh = shape(spec, plan, caseIndex, geometry, wholeGrid);
+        int bx = sh.bx;
+        int by = sh.by;
+        int bz = sh.bz;
+        int[] i0 = sh.i0;
+        double[] sp = {spec.sxMm(), spec.syMm(), spec.szMm()};
         int nxy = spec.nx() * spec.ny();
         List<LabelVolume> masks = new ArrayList<>();
         SplittableRandom caseReaderRng = new SplittableRandom(mix(spec.seed(), 4, caseIndex));
         for (int r = 0; r < plan.readers.size(); r++) {
             Reader rd = plan.readers.get(r);
-            double caseBias = hard ? (caseReaderRng.nextDouble() * 2 - 1) * HARD_BIAS_MM : 0;
-            double base = rd.biasMm + caseBias + (rd.centreIndex == plan.shiftedCentre ? spec.centreShiftMm() : 0);
-            SmoothField noise = new SmoothField(lo, hi, 6.0, noiseSigma,
+            double caseBias = sh.hard ? (caseReaderRng.nextDouble() * 2 - 1) * HARD_BIAS_MM : 0;
+            double base = rd.biasMm + caseBias + (rd.centreIndex == plan.shiftedCentre ? spec.centreShiftMm() : 0)
+                + rd.extraMm;
+            SmoothField noise = new SmoothField(sh.lo, sh.hi, 6.0, sh.noiseSigma,
                 new SplittableRandom(mix(spec.seed(), 5, caseIndex, r)));
             boolean misses = r == plan.missingReader && plan.missed[caseIndex];
+            float[] fb = rd.centreIndex == plan.inclusionCentre ? sh.fb : null;
             byte[] labels = new byte[geometry.nx() * geometry.ny() * geometry.nz()];
-            q = 0;
+            int q = 0;
             for (int k = 0; k < bz; k++) {
                 double z = (i0[2] + k) * sp[2];
                 for (int j = 0; j < by; j++) {
                     double y = (i0[1] + j) * sp[1];
                     int row = (i0[0]) + spec.nx() * (i0[1] + j) + nxy * (i0[2] + k);
                     for (int i = 0; i < bx; i++, q++) {
-                        double fa = f1[q];
-                        double fb = misses ? Double.POSITIVE_INFINITY : f2[q];
-                        double fmin = Math.min(fa, fb);
+                        double fa = sh.f1[q];
+                        double fo = misses ? Double.POSITIVE_INFINITY : sh.f2[q];
+                        if (fb != null) {
+                            fo = Math.min(fo, fb[q]);
+                        }
+                        double fmin = Math.min(fa, fo);
                         if (fmin > base + noise.bound()) {
                             continue;
                         }
                         double x = (i0[0] + i) * sp[0];
                         double t = base + noise.value(x, y, z);
                         if (fmin < t) {
-                            labels[row + i] = (byte) (core && fa + coreDepth < t ? 2 : 1);
+                            labels[row + i] = (byte) (sh.core && fa + sh.coreDepth < t ? 2 : 1);
                         }
                     }
                 }
@@ -572,7 +717,7 @@ public final class DemoGenerator {
             masks.add(LabelVolume.ofBytes(geometry, labels));
         }
 
-        ImageVolume image = phantom(spec, geometry, caseIndex, i0, bx, by, bz, f1, f2, core, coreDepth);
+        ImageVolume image = phantom(spec, geometry, caseIndex, i0, bx, by, bz, sh.f1, sh.f2, sh.core, sh.coreDepth);
         return new CaseData(masks, image);
     }
 

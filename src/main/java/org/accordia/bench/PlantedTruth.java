@@ -1,0 +1,73 @@
+package org.accordia.bench;
+
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.accordia.consensus.SignedSurface;
+import org.accordia.demo.DemoGenerator;
+import org.accordia.demo.DemoSpec;
+
+/**
+ * The planted value of the centre-effect estimand, measured on the grid from the generator itself.
+ *
+ * <p>Estimand: Δ_c = μ_c − mean over the other centres d of μ_d, where μ_c is the population mean
+ * (readers as random, over cases) signed surface distance in mm (positive = outside) of a reader's
+ * border relative to one common reference surface per case. The generator draws every reader as
+ * {@code { f(x) < centre margin + reader bias + smooth noise }} with bias and noise of mean 0, so the
+ * planted μ_c is taken as the mean over the study's cases of the signed surface distance of the
+ * case's truth shape as centre c plants it (grown by the centre's margin, with the centre's local
+ * inclusion if any; no reader bias, no reader noise) against the unplanted truth shape, computed by
+ * the project's own {@link SignedSurface#meanSignedMm(boolean[], boolean[], int, int, int, double,
+ * double, double)}. A centre without a plant has μ_c = 0 exactly (identical masks). One wide reader
+ * is an individual deviation, not a centre's: it leaves μ of its centre at 0.
+ *
+ * <p>On the calibration grids a +1.5 mm margin measures about +1.35 mm: the border voxels of the
+ * grown shape lie on the voxel lattice, and distances are taken between voxel centres.
+ */
+public final class PlantedTruth {
+    private PlantedTruth() {
+    }
+
+    /**
+     * μ_c of every centre of the study, in centre order.
+     *
+     * @param study the generated study
+     * @param scenario what it plants
+     */
+    public static Map<String, Double> centreMeansMm(DemoGenerator.InMemory study, Scenario scenario) {
+        Map<String, Double> mu = new LinkedHashMap<>();
+        List<String> centres = study.centres();
+        for (int c = 0; c < centres.size(); c++) {
+            double margin = c == Scenario.PLANTED_CENTRE ? scenario.centreShiftMm() : 0;
+            boolean inclusion = c == Scenario.PLANTED_CENTRE && scenario.inclusionMm() > 0;
+            mu.put(centres.get(c), margin == 0 && !inclusion ? 0.0 : meanOverCasesMm(study, margin, inclusion));
+        }
+        return mu;
+    }
+
+    /**
+     * The mean over the study's cases of the signed surface distance (mm) of the planted shape
+     * ({@link DemoGenerator.InMemory#plantedShape}) against the unplanted truth shape.
+     */
+    public static double meanOverCasesMm(DemoGenerator.InMemory study, double marginMm, boolean inclusion) {
+        DemoSpec s = study.spec();
+        double sum = 0;
+        for (String caseId : study.caseIds()) {
+            boolean[] planted = study.plantedShape(caseId, marginMm, inclusion);
+            boolean[] truth = study.plantedShape(caseId, 0, false);
+            sum += SignedSurface.meanSignedMm(planted, truth, s.nx(), s.ny(), s.nz(), s.sxMm(), s.syMm(), s.szMm());
+        }
+        return sum / study.caseIds().size();
+    }
+
+    /** Δ_c = μ_c − mean over the other centres d of μ_d, in the order of {@code mu}; NaN with one centre. */
+    public static Map<String, Double> deltasMm(Map<String, Double> mu) {
+        Map<String, Double> out = new LinkedHashMap<>();
+        double total = mu.values().stream().mapToDouble(Double::doubleValue).sum();
+        int g = mu.size();
+        for (Map.Entry<String, Double> e : mu.entrySet()) {
+            out.put(e.getKey(), g < 2 ? Double.NaN : e.getValue() - (total - e.getValue()) / (g - 1));
+        }
+        return out;
+    }
+}

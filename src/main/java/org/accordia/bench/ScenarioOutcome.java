@@ -1,0 +1,135 @@
+package org.accordia.bench;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+import org.accordia.analysis.LabelResult;
+import org.accordia.analysis.StudyResult;
+import org.accordia.shift.CentreRow;
+import org.accordia.shift.GroupEffect;
+import org.accordia.shift.LabelShiftReport;
+import org.accordia.shift.LabelShiftSummary;
+import org.accordia.shift.Verdict;
+import org.accordia.shift.VerdictRules;
+import org.accordia.study.ReaderId;
+
+/**
+ * What the calibration reads from one analysis, for one structure: the only place in the
+ * calibration that knows the shape of {@link StudyResult}. Every criterion is judged on these
+ * fields, so a change of the result types touches this class alone.
+ *
+ * <p>Where each field comes from in the current result:
+ * <ul>
+ *   <li>{@code flagged}: the centres in {@code summary.shift.flagged_centres}; the direction is the
+ *       sign of the effect the verdict rules judged ({@link LabelShiftReport#centreOffsets()}, the
+ *       median-centred offsets, with at least three centres with a usable effect; the raw effect
+ *       against the other centres' consensus, {@link LabelShiftReport#centreEffects()}, otherwise).</li>
+ *   <li>{@code uncertainCentres}: centres whose centres.csv flag is {@code uncertain}
+ *       ({@link VerdictRules#FLAG_UNCERTAIN}); exactly the centres behind the reasons of the rule
+ *       {@code uncertain-centre-effect}, so the review fired iff the list is not empty.</li>
+ *   <li>{@code readersToRecalibrate}: {@code summary.readers_to_recalibrate}.</li>
+ *   <li>{@code centreEffects}: the reported centre effect and its 95 % interval per centre
+ *       ({@link LabelShiftReport#centreEffects()}: signed surface distance against the other
+ *       centres' consensus, case-bootstrap percentile interval).</li>
+ *   <li>{@code alphaSentence}: the design cannot reach α ({@code summary.shift.can_reach_alpha} is
+ *       false) and its plain sentence ({@code summary.shift.design_statement}) is among the
+ *       decision's reasons.</li>
+ *   <li>{@code oneReaderSentence}: a decision sentence saying that a centre's effect cannot be told
+ *       apart from its single reader's bias. The current result has no such sentence, so this is
+ *       false on the current rule.</li>
+ *   <li>{@code verdict}, {@code rule}, {@code reasons}: the summary's; {@code pValue} and
+ *       {@code canReachAlpha}: the permutation test's.</li>
+ * </ul>
+ *
+ * @param label the structure
+ * @param flagged the flagged centres with the direction of their judged effect, sorted by centre
+ * @param uncertainCentres centres behind an "uncertain centre effect" review, sorted
+ * @param readersToRecalibrate readers named for recalibration, sorted
+ * @param centreEffects each centre's reported effect and interval, sorted by centre
+ * @param alphaSentence the decision says, in a plain sentence, that the design cannot reach α
+ * @param oneReaderSentence the decision says, in a plain sentence, that a one-reader centre's
+ *     effect cannot be told apart from its reader's bias
+ * @param verdict the decision
+ * @param rule the rule that fired first
+ * @param reasons the decision's reasons
+ * @param pValue the permutation test's p-value
+ * @param canReachAlpha whether the design's smallest attainable p is at most α
+ */
+public record ScenarioOutcome(String label, List<FlaggedCentre> flagged, List<String> uncertainCentres,
+                              List<ReaderId> readersToRecalibrate, List<CentreEstimate> centreEffects,
+                              boolean alphaSentence, boolean oneReaderSentence, Verdict verdict, String rule,
+                              List<String> reasons, double pValue, boolean canReachAlpha) {
+
+    /** A flagged centre; {@code direction} +1 = draws outside (wider), −1 = inside, 0 = unknown. */
+    public record FlaggedCentre(String centre, int direction) {
+    }
+
+    /** A centre's reported effect (mm, positive = outside) and its 95 % interval. */
+    public record CentreEstimate(String centre, int readers, double estimateMm, double loMm, double hiMm) {
+        /** Whether the interval holds {@code valueMm} (NaN limits hold nothing). */
+        public boolean covers(double valueMm) {
+            return loMm <= valueMm && valueMm <= hiMm;
+        }
+    }
+
+    public ScenarioOutcome {
+        flagged = List.copyOf(flagged);
+        uncertainCentres = List.copyOf(uncertainCentres);
+        readersToRecalibrate = List.copyOf(readersToRecalibrate);
+        centreEffects = List.copyOf(centreEffects);
+        reasons = List.copyOf(reasons);
+    }
+
+    /** The outcome for structure {@code label} of an analysis. */
+    public static ScenarioOutcome of(StudyResult result, String label) {
+        LabelResult l = result.labels().stream().filter(x -> x.name().equals(label)).findFirst()
+            .orElseThrow(() -> new IllegalArgumentException("no structure " + label + " in the result"));
+        LabelShiftSummary summary = l.summary();
+        LabelShiftReport shift = l.shift();
+        long usable = shift.centreEffects().stream()
+            .filter(e -> Double.isFinite(e.signedSurfaceMm()) || Double.isFinite(e.volumeRatio())).count();
+        List<GroupEffect> judged = usable >= 3 ? shift.centreOffsets() : shift.centreEffects();
+        Map<String, Double> judgedMm = new TreeMap<>();
+        judged.forEach(e -> judgedMm.put(e.group(), e.signedSurfaceMm()));
+        List<FlaggedCentre> flagged = new ArrayList<>();
+        for (String c : new java.util.TreeSet<>(summary.shift().flaggedCentres())) {
+            Double mm = judgedMm.get(c);
+            flagged.add(new FlaggedCentre(c, mm == null || !Double.isFinite(mm) ? 0 : (int) Math.signum(mm)));
+        }
+        List<String> uncertain = shift.centreRows().stream()
+            .filter(r -> VerdictRules.FLAG_UNCERTAIN.equals(r.flag())).map(CentreRow::centre).sorted().toList();
+        List<ReaderId> readers = summary.readersToRecalibrate().stream()
+            .map(r -> new ReaderId(r.reader(), r.centre())).sorted().toList();
+        List<CentreEstimate> effects = shift.centreEffects().stream()
+            .map(e -> new CentreEstimate(e.group(), e.readers(), e.signedSurfaceMm(), e.signedSurfaceLoMm(),
+                e.signedSurfaceHiMm()))
+            .sorted(java.util.Comparator.comparing(CentreEstimate::centre)).toList();
+        String statement = summary.shift().designStatement();
+        boolean alphaSentence = !summary.shift().canReachAlpha() && statement != null && !statement.isBlank()
+            && summary.reasons().stream().anyMatch(r -> r.contains(statement));
+        return new ScenarioOutcome(label, flagged, uncertain, readers, effects, alphaSentence, false,
+            summary.verdict(), summary.rule(), summary.reasons(), shift.permutation().pValue(),
+            shift.permutation().canReachAlpha());
+    }
+
+    /** Whether {@code centre} is flagged with direction {@code direction} (sign). */
+    public boolean flags(String centre, int direction) {
+        return flagged.stream().anyMatch(f -> f.centre().equals(centre) && f.direction() == direction);
+    }
+
+    /** Whether any centre other than {@code centre} is flagged (any centre when it is null). */
+    public boolean flagsOtherThan(String centre) {
+        return flagged.stream().anyMatch(f -> !f.centre().equals(centre));
+    }
+
+    /** Whether {@code centre} is flagged in either direction. */
+    public boolean flags(String centre) {
+        return flagged.stream().anyMatch(f -> f.centre().equals(centre));
+    }
+
+    /** The effect reported for {@code centre}, or null. */
+    public CentreEstimate effectOf(String centre) {
+        return centreEffects.stream().filter(e -> e.centre().equals(centre)).findFirst().orElse(null);
+    }
+}
