@@ -69,8 +69,9 @@ import org.accordia.study.Structure;
  * ({@link CaseAgreementEngine}); the STAPLE references all / others / other_centres with signed
  * surfaces ({@link CaseReferences#rowsWithSurfaces}); when the study has several label values, the
  * multi-label STAPLE; the sink; a {@link CaseRecord}. Per structure: the {@link LabelShiftInput}
- * (distance matrices from the pairs per the protocol's {@code shift.distance}; centre effects and
- * variance components from the signed surface distance against the other centres' consensus;
+ * (distance matrices from the pairs per the protocol's {@code shift.distance}; raw centre effects
+ * from the signed surface distance against the other centres' consensus; the judged centre effects
+ * Δ_c and the variance components from the same measure against the consensus of all readers;
  * reader effects against the other readers' consensus; case summaries; complete-case volumes for
  * the ICC), {@link ShiftAnalysis}, reader bootstrap summaries, readers who overlook part of the
  * structure, and notes on centre effects.
@@ -411,6 +412,7 @@ public final class StudyAnalysis {
         List<CaseDistances> distances = new ArrayList<>();
         List<ReaderCaseMeasure> centreMeasures = new ArrayList<>();
         List<ReaderCaseMeasure> readerMeasures = new ArrayList<>();
+        List<ReaderCaseMeasure> commonMeasures = new ArrayList<>();
         List<ReaderMeasure> variance = new ArrayList<>();
         List<CaseSummary> summaries2 = new ArrayList<>();
         List<double[]> volumeRows = new ArrayList<>();
@@ -431,6 +433,9 @@ public final class StudyAnalysis {
                         p.signedSurfaceMm(), p.volumeRatio(), p.border());
                     if (p.reference().equals(ReaderPerformance.REFERENCE_OTHER_CENTRES)) {
                         centreMeasures.add(m);
+                    } else if (p.reference().equals(ReaderPerformance.REFERENCE_ALL)) {
+                        // one common reference per case: the measure the centre effects and the model share
+                        commonMeasures.add(m);
                         variance.add(new ReaderMeasure(c.caseId(), r.centre(), keys.get(r), p.signedSurfaceMm()));
                     } else if (p.reference().equals(ReaderPerformance.REFERENCE_OTHERS)) {
                         readerMeasures.add(m);
@@ -449,8 +454,8 @@ public final class StudyAnalysis {
         }
         double[][] volumes = volumeRows.size() >= 2 && readers.size() >= 2 ? volumeRows.toArray(new double[0][]) : null;
         LabelShiftInput input = new LabelShiftInput(s + 1, st.name(), distanceName(protocol.shift().distance()),
-            readerCentre, distances, centreMeasures, readerMeasures,
-            "signed surface distance against the other centres' consensus (mm)", variance, summaries2, volumes,
+            readerCentre, distances, centreMeasures, readerMeasures, commonMeasures,
+            "signed surface distance against the consensus of all readers (mm)", variance, summaries2, volumes,
             maskLabels);
         LabelShiftReport report = ShiftAnalysis.analyse(input, settings);
         List<String> notes = new ArrayList<>();

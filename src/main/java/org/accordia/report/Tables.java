@@ -34,11 +34,13 @@ public final class Tables {
         "centre_b", "dice", "jaccard", "volume_a_ml", "volume_b_ml", "hd_mm", "hd95_mm", "assd_mm", "nsd", "flag");
     /** Columns of readers.csv. */
     public static final List<String> READERS = List.of("case", "label", "reader", "centre", "sensitivity",
-        "specificity", "dice_vs_consensus", "volume_ml", "volume_ratio", "signed_surface_mm", "reference", "border_outside_share",
-        "border_inside_share");
+        "specificity", "dice_vs_consensus", "volume_ml", "volume_ratio", "signed_surface_mm", "reference",
+        "border_outside_share", "border_inside_share");
     /** Columns of centres.csv. */
     public static final List<String> CENTRES = List.of("label", "centre", "readers", "cases", "signed_surface_mm",
         "signed_surface_lo", "signed_surface_hi", "volume_ratio", "volume_ratio_lo", "volume_ratio_hi", "flag",
+        "effect_mm", "effect_lo_mm", "effect_hi_mm", "effect_volume_ratio", "effect_volume_ratio_lo",
+        "effect_volume_ratio_hi", "test_p", "test_p_holm", "test_min_p", "test_splits", "finding",
         "border_outside_share", "border_outside_excess", "border_outside_excess_lo", "border_outside_excess_hi",
         "border_inside_share", "border_inside_excess", "border_inside_excess_lo", "border_inside_excess_hi");
     /** Columns of cases.csv. */
@@ -114,6 +116,9 @@ public final class Tables {
         return List.of(text(c.label()), text(c.centre()), integer(c.readers()), integer(c.cases()),
             number(c.signedSurfaceMm()), number(c.signedSurfaceLoMm()), number(c.signedSurfaceHiMm()),
             number(c.volumeRatio()), number(c.volumeRatioLo()), number(c.volumeRatioHi()), text(c.flag()),
+            number(c.effectMm()), number(c.effectLoMm()), number(c.effectHiMm()), number(c.effectVolumeRatio()),
+            number(c.effectVolumeRatioLo()), number(c.effectVolumeRatioHi()), number(c.testP()),
+            number(c.testPAdjusted()), number(c.testMinP()), integer(c.testPermutations()), text(c.finding()),
             number(c.outsideShare()), number(c.outsideExcess()), number(c.outsideExcessLo()),
             number(c.outsideExcessHi()), number(c.insideShare()), number(c.insideExcess()),
             number(c.insideExcessLo()), number(c.insideExcessHi()));

@@ -32,61 +32,16 @@ public final class EffectEstimator {
 
     /** Effects of each centre (sorted by name). */
     public static List<GroupEffect> byCentre(List<ReaderCaseMeasure> rows, int resamples, long seed) {
-        return estimate(rows, ReaderCaseMeasure::centre, resamples, seed, false);
+        return estimate(rows, ReaderCaseMeasure::centre, resamples, seed);
     }
 
     /** Effects of each reader (sorted by id). */
     public static List<GroupEffect> byReader(List<ReaderCaseMeasure> rows, int resamples, long seed) {
-        return estimate(rows, ReaderCaseMeasure::reader, resamples, seed, false);
-    }
-
-    /**
-     * Median-centred centre offsets (sorted by name): what is left of each centre's effect once the
-     * mirror effect of one-vs-rest contrasts is undone.
-     *
-     * <p>Model: centre c draws with offset o_c, and the consensus of the other centres sits near
-     * the mean of their offsets, so the measured effect is e_c = o_c − mean_{c'≠c} o_{c'}, hence
-     * o_c − Σo/G = e_c·(G − 1)/G. Offsets are identifiable only up to a constant; we fix it by
-     * parsimony (most centres draw alike) and centre on the median:
-     * r_c = a_c − median_{c'} a_{c'} with a_c = e_c·(G − 1)/G. With one of G ≥ 3 centres drawing Δ
-     * wider, e = (Δ, −Δ/(G−1), ...), a = (Δ(G−1)/G, −Δ/G, ...), median −Δ/G, so r = (Δ, 0, ..., 0):
-     * the shifted centre keeps its full shift and the others drop to zero. The same map is applied
-     * to the mean log volume ratio (volume ratio = exp(r)).
-     *
-     * <p>Intervals: computed inside each case-bootstrap resample (the same draws as
-     * {@link #byCentre} with the same seed, the same draw for every centre), so r_c gets its own
-     * percentile interval. G is the number of centres with a value in that resample; with fewer than
-     * 2 centres r is NaN. With G = 2 the map gives ±(e_1 − e_2)/4 ≈ ±e/2: the two centres are exact
-     * mirrors and the data cannot say which one differs (see {@link VerdictRules}).
-     */
-    public static List<GroupEffect> centreOffsets(List<ReaderCaseMeasure> rows, int resamples, long seed) {
-        return estimate(rows, ReaderCaseMeasure::centre, resamples, seed, true);
-    }
-
-    /** r_c = a_c − median(a) with a_c = e_c·(G − 1)/G over the finite entries (in place). */
-    static void medianCentre(double[] e) {
-        int g = count(e);
-        if (g < 2) {
-            Arrays.fill(e, Double.NaN);
-            return;
-        }
-        double[] a = new double[g];
-        int j = 0;
-        for (int i = 0; i < e.length; i++) {
-            if (!Double.isNaN(e[i])) {
-                e[i] = e[i] * (g - 1) / g;
-                a[j++] = e[i];
-            }
-        }
-        Arrays.sort(a);
-        double median = g % 2 == 1 ? a[g / 2] : 0.5 * (a[g / 2 - 1] + a[g / 2]);
-        for (int i = 0; i < e.length; i++) {
-            e[i] -= median;   // NaN stays NaN
-        }
+        return estimate(rows, ReaderCaseMeasure::reader, resamples, seed);
     }
 
     private static List<GroupEffect> estimate(List<ReaderCaseMeasure> rows, Function<ReaderCaseMeasure, String> key,
-            int resamples, long seed, boolean centred) {
+            int resamples, long seed) {
         List<String> cases = List.copyOf(new TreeSet<>(rows.stream().map(ReaderCaseMeasure::caseId).toList()));
         List<String> groups = List.copyOf(new TreeSet<>(rows.stream().map(key).toList()));
         int nc = cases.size();
@@ -135,10 +90,6 @@ public final class EffectEstimator {
                 sb[g] = mean(sCase[g], draw);
                 vb[g] = mean(vCase[g], draw);
             }
-            if (centred) {
-                medianCentre(sb);
-                medianCentre(vb);
-            }
             for (int g = 0; g < ng; g++) {
                 sBoot[g][b] = sb[g];
                 vBoot[g][b] = vb[g];
@@ -149,10 +100,6 @@ public final class EffectEstimator {
         for (int g = 0; g < ng; g++) {
             sPoint[g] = mean(sCase[g], null);
             vPoint[g] = mean(vCase[g], null);
-        }
-        if (centred) {
-            medianCentre(sPoint);
-            medianCentre(vPoint);
         }
         List<GroupEffect> out = new ArrayList<>();
         for (int g = 0; g < ng; g++) {

@@ -15,6 +15,9 @@ import java.util.Map;
  *                             the other centres' consensus (centre effects)
  * @param readerMeasures       per reader and case: the same against the other readers' consensus
  *                             (reader recalibration); may be the same list as centreMeasures
+ * @param commonMeasures       per reader and case: the same against ONE common reference per case
+ *                             (the consensus of all readers): the centre effects Δ_c the flag
+ *                             judges ({@link CentreContrasts})
  * @param varianceMeasureName  name and unit of the variance-component measure, e.g. "signed surface distance (mm)"
  * @param varianceMeasures     per reader and case: the measure for the variance-component model
  *                             (empty: no variance components)
@@ -31,6 +34,7 @@ public record LabelShiftInput(
         List<CaseDistances> distances,
         List<ReaderCaseMeasure> centreMeasures,
         List<ReaderCaseMeasure> readerMeasures,
+        List<ReaderCaseMeasure> commonMeasures,
         String varianceMeasureName,
         List<ReaderMeasure> varianceMeasures,
         List<CaseSummary> caseSummaries,
@@ -40,10 +44,10 @@ public record LabelShiftInput(
     /** An input without mask labels. */
     public LabelShiftInput(int label, String name, String distanceName, Map<String, String> readerCentre,
             List<CaseDistances> distances, List<ReaderCaseMeasure> centreMeasures,
-            List<ReaderCaseMeasure> readerMeasures, String varianceMeasureName, List<ReaderMeasure> varianceMeasures,
-            List<CaseSummary> caseSummaries, double[][] volumesMl) {
-        this(label, name, distanceName, readerCentre, distances, centreMeasures, readerMeasures, varianceMeasureName,
-                varianceMeasures, caseSummaries, volumesMl, List.of());
+            List<ReaderCaseMeasure> readerMeasures, List<ReaderCaseMeasure> commonMeasures, String varianceMeasureName,
+            List<ReaderMeasure> varianceMeasures, List<CaseSummary> caseSummaries, double[][] volumesMl) {
+        this(label, name, distanceName, readerCentre, distances, centreMeasures, readerMeasures, commonMeasures,
+                varianceMeasureName, varianceMeasures, caseSummaries, volumesMl, List.of());
     }
 
     public LabelShiftInput {
@@ -52,6 +56,7 @@ public record LabelShiftInput(
         distances = List.copyOf(distances);
         centreMeasures = List.copyOf(centreMeasures);
         readerMeasures = List.copyOf(readerMeasures);
+        commonMeasures = List.copyOf(commonMeasures);
         varianceMeasures = List.copyOf(varianceMeasures);
         caseSummaries = List.copyOf(caseSummaries);
         if (volumesMl != null) {

@@ -132,7 +132,7 @@ public final class ReviewLists {
                         surfaceWords(e, settings.recalibrationToleranceMm()),
                         Wording.plain(settings.recalibrationToleranceMm(), 3)));
             }
-            if (e.volumeBeyond(settings.recalibrationVolumePercent()) && VerdictRules.surfaceSameWay(e)) {
+            if (e.volumeBeyond(settings.recalibrationVolumePercent()) && CentreFindings.surfaceSameWay(e)) {
                 reasons.add(String.format(Locale.ROOT,
                         "%s; the whole interval is beyond the %s%% tolerance, with the boundary moving the same way",
                         volumeWords(e, settings.recalibrationVolumePercent()),

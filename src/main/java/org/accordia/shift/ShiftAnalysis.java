@@ -14,7 +14,8 @@ import java.util.TreeSet;
  * cases to adjudicate and readers to recalibrate ({@link ReviewLists}), an ICC side table
  * ({@link Icc}) and the verdict ({@link VerdictRules}). Deterministic: the same input and settings
  * give the same report. Seeds: permutation test {@code seed}, effect bootstrap {@code seed + 1},
- * variance components {@code seed + 2}, local effects {@code seed + 3}, each offset by 1,000,003 × label so labels do not share
+ * variance components {@code seed + 2}, centre-vs-rest tests {@code seed + 3} (+ 7919 per centre), local
+ * effects {@code seed + 4}, each offset by 1,000,003 × label so labels do not share
  * random streams.
  */
 public final class ShiftAnalysis {
@@ -27,15 +28,19 @@ public final class ShiftAnalysis {
         PermutationResult test = PermutationTest.test(in.distances(), in.readerCentre(), s.alpha(), s.permutations(),
                 s.exactLimit(), base);
         List<GroupEffect> centres = EffectEstimator.byCentre(in.centreMeasures(), s.bootstrapResamples(), base + 1);
-        // same seed as byCentre: the offsets' bootstrap uses the very same case resamples
-        List<GroupEffect> offsets = EffectEstimator.centreOffsets(in.centreMeasures(), s.bootstrapResamples(), base + 1);
+        List<CentreContrasts.Contrast> contrasts = CentreContrasts.estimate(in.commonMeasures());
+        List<CentreVsRest.Result> centreTests = CentreVsRest.test(in.distances(), in.readerCentre(), s.alpha(),
+                s.permutations(), s.exactLimit(), base + 3);
+        List<LocalEffect> local = LocalEffects.byCentre(in.centreMeasures(), s.bootstrapResamples(), base + 4);
+        List<EmptyGroup> empty = EmptyGroups.find(in.maskLabels());
+        CentreFindings.Result judged = CentreFindings.judge(centreTests, CentreContrasts.effects(contrasts), local, s);
+        // while a group's masks are all empty, no centre is judged (VerdictRules: empty-centre / empty-reader)
+        CentreFindings.Result findings = empty.isEmpty() ? judged : judged.withheld();
         List<GroupEffect> readers = EffectEstimator.byReader(in.readerMeasures(), s.bootstrapResamples(), base + 1);
         VarianceComponents.Result vc = in.varianceMeasures().isEmpty() ? null
                 : VarianceComponents.fit(in.varianceMeasures(), s.varianceResamples(), s.centreTestResamples(), base + 2);
         Icc.Result icc = in.volumesMl() == null ? null : Icc.compute(in.volumesMl(), s.alpha());
 
-        List<LocalEffect> local = LocalEffects.byCentre(in.centreMeasures(), s.bootstrapResamples(), base + 3);
-        List<EmptyGroup> empty = EmptyGroups.find(in.maskLabels());
         Set<String> setAside = new TreeSet<>();
         for (EmptyGroup g : empty) {
             in.readerCentre().forEach((r, c) -> {
@@ -53,15 +58,16 @@ public final class ShiftAnalysis {
         in.distances().forEach(c -> allCases.add(c.caseId()));
         List<DesignLimit> limits = DesignLimits.of(DesignLimits.roster(in.readerCentre()), s.alpha(), s.exactLimit(),
                 s.permutations());
-        VerdictRules.Decision decision = VerdictRules.decide(test, centres, offsets, adjudicate.size(), allCases.size(),
+        VerdictRules.Decision decision = VerdictRules.decide(test, findings, adjudicate.size(), allCases.size(),
                 recalibrate, s, new VerdictRules.Context(limits, empty, local, corrections.size()));
 
         List<CentreRow> rows = new ArrayList<>();
         String labelName = in.name() == null ? Integer.toString(in.label()) : in.name();
+        Map<String, GroupEffect> deltaOf = new LinkedHashMap<>();
+        contrasts.forEach(c -> deltaOf.put(c.effect().group(), c.effect()));
         for (GroupEffect e : centres) {
             LocalEffect l = local.stream().filter(x -> x.centre().equals(e.group())).findFirst().orElse(null);
-            rows.add(CentreRow.of(labelName, e, decision.centreFlags().getOrDefault(e.group(), VerdictRules.FLAG_NONE),
-                    l));
+            rows.add(CentreRow.of(labelName, e, findings.of(e.group()), deltaOf.get(e.group()), l));
         }
         List<String> notes = new ArrayList<>(partition.notes());
         if (vc != null) {
@@ -101,6 +107,7 @@ public final class ShiftAnalysis {
                 vc == null ? null : in.varianceMeasureName(), components, intervalMethod, centreTest, iccForms,
                 decision.verdict(), decision.rule(), reasons, adjudicate, recalibrate, decision.designLimits(),
                 decision.emptyGroups(), corrections);
-        return new LabelShiftReport(summary, rows, partition, test, vc, centres, readers, icc, offsets, local);
+        return new LabelShiftReport(summary, rows, partition, test, vc, centres, readers, icc, contrasts, centreTests,
+                findings, local);
     }
 }

@@ -10,23 +10,14 @@ import java.util.Map;
  * The decision for one label: {@code pool}, {@code review} or {@code re-annotate}, with the rule
  * that fired and the reasons in words.
  *
- * <p><b>Which effect is judged.</b> centres.csv reports each centre against the consensus of the
- * OTHER centres (e_c). That consensus contains a shifted centre, so when one of G centres draws Δ
- * wider, the others appear about Δ/(G−1) narrower (the mirror effect) and could pass the minimum
- * although they did nothing different. With G ≥ 3 the rules therefore judge the median-centred
- * offsets r_c ({@link EffectEstimator#centreOffsets}): the shifted centre keeps its shift and the
- * others drop to about 0. With G = 2 the two centres are exact mirrors and the data cannot say
- * which one departs: the pair is judged once (through the first centre by name) and, when it
- * passes, BOTH centres are listed in {@code flagged_centres} with the flag {@code differ} and the
- * rule {@code centre-pair-differs}. With one centre there is nothing to compare.
- *
- * <p>A centre is <em>flagged</em> only when BOTH the reader-level permutation test is significant
- * (p ≤ α, and the design can reach α) AND the judged effect's interval lies entirely beyond the
- * minimum: signed surface interval lo &gt; +minimumShiftMm or hi &lt; −minimumShiftMm; or
- * volume-ratio interval lo &gt; 1 + m or hi &lt; 1 − m (m = minimumVolumeShiftPercent/100)
- * <em>and</em> the signed-surface interval excludes 0 on the same side. A volume interval beyond
- * the minimum without that support flags the centre {@code uncertain} (review), never {@code shift}:
- * on small structures a sub-millimetre margin change already moves the volume by 15 % and more.
+ * <p><b>Centres.</b> Each centre's finding comes from {@link CentreFindings}: a centre is flagged
+ * only when its own centre-vs-rest permutation test rejects after Holm's adjustment across centres
+ * ({@link CentreVsRest}) AND its effect Δ_c against the other centres ({@link CentreContrasts},
+ * readers and cases random) lies beyond the minimum (the volume route needs the surface interval
+ * on the same side of 0). With two centres the pair is judged once and, when it passes, BOTH
+ * centres are listed in {@code flagged_centres} with the flag {@code differ} and the rule
+ * {@code centre-pair-differs}. The omnibus test ({@code test}) still drives
+ * {@code significant-but-small} and the design statement.
  *
  * <p>Centre reasons are listed with the largest absolute judged signed-surface effect first (ties
  * by name); flagged centres and flags are sorted by name.
@@ -34,22 +25,29 @@ import java.util.Map;
  * <p>Rules, checked in this order (the verdict is the most severe one that fires; the reported
  * rule is the first that fires; every fired rule adds its reason):
  * <ol>
- * <li>{@code centre-shift} → re-annotate: at least one centre is flagged (G ≥ 3, or G = 1);
+ * <li>{@code empty-centre} / {@code empty-reader} → review: a centre's (reader's) masks are all
+ * empty for a structure the others draw ({@link EmptyGroups}); no centre is judged and no pooling
+ * verdict is given while it stands.</li>
+ * <li>{@code centre-shift} → re-annotate: at least one centre is flagged (G ≥ 3); a centre's
+ * effect is beyond the minimum through its surface or supported volume interval, or through the
+ * share of its border beyond the structure's tolerance ({@link LocalEffects});
  * {@code centre-pair-differs} → re-annotate: the two centres of a two-centre study differ.</li>
- * <li>{@code significant-but-small} → review: the test is significant but no centre is flagged.</li>
- * <li>{@code uncertain-centre-effect} → review: a centre that is not flagged has an interval that
- * excludes "no shift" (0 mm or ratio 1) and either crosses the minimum (size uncertain), lies
- * beyond the minimum while the test is not significant (evidence disagrees), or passes the volume
- * minimum without the surface moving the same way. An interval entirely between "no shift" and
- * the minimum (a detectable but negligible shift) does not fire.</li>
+ * <li>{@code significant-but-small} → review: the omnibus test is significant, or a centre's own
+ * test rejects with an effect within the minimum, but no centre is flagged.</li>
+ * <li>{@code uncertain-centre-effect} → review: some centre's finding is size-uncertain,
+ * volume-without-surface or evidence-disagrees ({@link CentreFindings.Kind}).</li>
  * <li>{@code design-cannot-reach-alpha} → review: the design's smallest attainable p-value is
  * above α and some centre's judged point estimate exceeds the minimum.</li>
  * <li>{@code many-cases-to-adjudicate} → review: more than {@code adjudicationShare} of the cases
  * need adjudication.</li>
  * <li>{@code readers-to-recalibrate} → review: at least one reader needs recalibration.</li>
+ * <li>{@code single-centre} → pool level: one centre, so a shift is not testable, and none of the
+ * above fired (the report's headline says "single centre: shift not testable").</li>
  * <li>{@code no-shift} → pool: none of the above.</li>
  * </ol>
- * When the design cannot reach α, its plain statement is always added to the reasons.
+ * The design limitations ({@link DesignLimits}) travel with the decision as typed values; the report
+ * gives each its plain sentence. Masks a reader should correct are counted in a sentence and never
+ * raise the verdict by themselves.
  */
 public final class VerdictRules {
     public static final String CENTRE_SHIFT = "centre-shift";
@@ -121,161 +119,101 @@ public final class VerdictRules {
     /**
      * The decision.
      *
-     * @param test              the reader-level permutation test
-     * @param centres           each centre's effect against the other centres' consensus (raw,
-     *                          as in centres.csv)
-     * @param offsets           the median-centred offsets of the same centres
-     *                          ({@link EffectEstimator#centreOffsets}); used to judge centres when
-     *                          there are at least 3
+     * @param test              the omnibus reader-level permutation test (all centres at once)
+     * @param centres           each centre's finding from its own test and its effect
+     *                          ({@link CentreFindings#judge})
      * @param casesToAdjudicate cases that need adjudication
      * @param totalCases        all cases
      * @param readers           readers that need recalibration
      * @param s                 thresholds
      */
-    public static Decision decide(PermutationResult test, List<GroupEffect> centres, List<GroupEffect> offsets,
-            int casesToAdjudicate, int totalCases, List<ReaderToRecalibrate> readers, ShiftSettings s) {
-        return decide(test, centres, offsets, casesToAdjudicate, totalCases, readers, s, Context.none());
+    public static Decision decide(PermutationResult test, CentreFindings.Result centres, int casesToAdjudicate,
+            int totalCases, List<ReaderToRecalibrate> readers, ShiftSettings s) {
+        return decide(test, centres, casesToAdjudicate, totalCases, readers, s, Context.none());
     }
 
-    /** The decision with the design limits, empty groups and local effects of {@code ctx}. */
-    public static Decision decide(PermutationResult test, List<GroupEffect> centres, List<GroupEffect> offsets,
-            int casesToAdjudicate, int totalCases, List<ReaderToRecalibrate> readers, ShiftSettings s, Context ctx) {
+    /** The decision with the design limits, empty groups and masks to correct of {@code ctx}. */
+    public static Decision decide(PermutationResult test, CentreFindings.Result centres, int casesToAdjudicate,
+            int totalCases, List<ReaderToRecalibrate> readers, ShiftSettings s, Context ctx) {
         boolean withheld = !ctx.emptyGroups().isEmpty();
+        if (withheld) {
+            centres = centres.withheld();
+        }
         boolean significant = !withheld && test.canReachAlpha() && test.pValue() <= s.alpha();
-        Map<String, LocalEffect> localOf = new LinkedHashMap<>();
-        ctx.localEffects().forEach(l -> localOf.put(l.centre(), l));
         String testWords = testWords(test, s);
-        List<String> flagged = new ArrayList<>();
-        Map<String, String> flags = new LinkedHashMap<>();
+        List<String> flagged = centres.flagged();
         List<String> shiftReasons = new ArrayList<>();
         List<String> uncertainReasons = new ArrayList<>();
         List<String> pointLarge = new ArrayList<>();
-        Map<String, GroupEffect> offsetOf = new LinkedHashMap<>();
-        offsets.forEach(o -> offsetOf.put(o.group(), o));
-        // centres with a usable effect; two of them are a pair even when a third centre has no value
-        List<GroupEffect> usable = centres.stream()
-                .filter(e -> Double.isFinite(e.signedSurfaceMm()) || Double.isFinite(e.volumeRatio())).toList();
-        boolean pair = usable.size() == 2;
-        boolean centred = usable.size() >= 3;
-        List<GroupEffect> judged = new ArrayList<>();
-        if (pair) {
-            // two centres are exact mirrors: judge the pair once, through the first centre by name
-            judged.add(usable.stream().min(java.util.Comparator.comparing(GroupEffect::group)).orElseThrow());
-        } else if (centred) {
-            for (GroupEffect e : usable) {
-                GroupEffect o = offsetOf.get(e.group());
-                if (o == null) {
-                    throw new IllegalArgumentException("no median-centred offset for centre " + e.group());
-                }
-                judged.add(o);
-            }
-        } else {
-            judged.addAll(centres);
-        }
+        boolean pair = centres.pair();
+        boolean negligible = false;
         // largest signed-surface effect first, so the first reason names the likely source
-        judged.sort(java.util.Comparator.comparingDouble((GroupEffect e) -> Double.isNaN(e.signedSurfaceMm())
-                ? Double.NEGATIVE_INFINITY : Math.abs(e.signedSurfaceMm())).reversed()
-                .thenComparing(GroupEffect::group));
-        Map<String, GroupEffect> rawOf = new LinkedHashMap<>();
-        centres.forEach(e -> rawOf.put(e.group(), e));
-        for (GroupEffect e : judged) {
-            boolean surface = e.surfaceBeyond(s.minimumShiftMm());
-            boolean volumeBeyond = e.volumeBeyond(s.minimumVolumeShiftPercent());
-            boolean volume = volumeBeyond && surfaceSameWay(e);
-            boolean volumeAlone = volumeBeyond && !volume && !surface;
-            boolean uncertain = e.crossesMinimum(s.minimumShiftMm(), s.minimumVolumeShiftPercent());
-            LocalEffect local = localOf.get(e.group());
-            boolean localBeyond = local != null && local.beyond(LocalEffects.MINIMUM_EXCESS);
-            String words;
-            List<String> who;
-            if (pair) {
-                String other = usable.stream().map(GroupEffect::group).filter(g -> !g.equals(e.group()))
-                        .findFirst().orElseThrow();
-                who = List.of(e.group(), other);
-                words = "Centres " + e.group() + " and " + other + " differ from each other: " + e.group() + " "
-                        + e.describe("centre " + other, s.minimumShiftMm(), s.minimumVolumeShiftPercent());
-            } else if (centred) {
-                who = List.of(e.group());
-                words = "Centre " + e.group() + " " + e.describe("the typical centre", s.minimumShiftMm(),
-                        s.minimumVolumeShiftPercent())
-                        + " (the other centres' consensus includes this centre's own shift, so the comparison is"
-                        + " re-centred on the median centre; against the other centres' consensus it "
-                        + rawOf.get(e.group()).describe("them") + ")";
-            } else {
-                who = List.of(e.group());
-                words = "Centre " + e.group() + " " + e.describe("the other centres", s.minimumShiftMm(),
-                        s.minimumVolumeShiftPercent());
-            }
-            String which = surface && volume ? "surface and volume" : surface ? "surface"
-                    : "volume (with the surface interval on the same side of 0)";
-            if (withheld) {
-                who.forEach(g -> flags.put(g, FLAG_NONE));
-                continue;
-            }
-            if (localBeyond && !surface && !volume) {
-                String localWords = localWords(local, pair ? "centre " + who.get(1) : "the typical centre");
-                if (significant) {
-                    for (String g : who) {
-                        flagged.add(g);
-                        flags.put(g, pair ? FLAG_PAIR : FLAG_SHIFT);
-                    }
-                    String subject = pair ? "Centres " + who.get(0) + " and " + who.get(1) + " differ on one side "
-                            + "of the structure: centre " + who.get(0) : "Centre " + who.get(0);
+        List<CentreFindings.Finding> judged = new ArrayList<>(centres.findings());
+        if (pair) {
+            judged.removeIf(f -> f.partner() != null && f.centre().compareTo(f.partner()) > 0);
+        }
+        judged.sort(java.util.Comparator.comparingDouble((CentreFindings.Finding f) ->
+                Double.isNaN(f.effect().signedSurfaceMm()) ? Double.NEGATIVE_INFINITY
+                        : Math.abs(f.effect().signedSurfaceMm())).reversed()
+                .thenComparing(CentreFindings.Finding::centre));
+        for (CentreFindings.Finding f : judged) {
+            GroupEffect e = f.effect();
+            String words = pair
+                    ? "Centres " + f.centre() + " and " + f.partner() + " differ from each other: " + f.centre() + " "
+                            + e.describe("centre " + f.partner(), s.minimumShiftMm(), s.minimumVolumeShiftPercent())
+                    : "Centre " + f.centre() + " " + e.describe("the other centres", s.minimumShiftMm(),
+                            s.minimumVolumeShiftPercent());
+            String own = ownTestWords(f.test(), pair, s);
+            String which = f.surfaceBeyond() && f.volumeSupported() ? "surface and volume" : f.surfaceBeyond()
+                    ? "surface" : "volume (with the surface interval on the same side of 0)";
+            boolean localOnly = f.localBeyond() && !f.surfaceBeyond() && !f.volumeSupported();
+            if (localOnly && f.kind() != CentreFindings.Kind.NONE) {
+                String subject = pair ? "Centres " + f.centre() + " and " + f.partner() + " differ on one side of the "
+                        + "structure: centre " + f.centre() : "Centre " + f.centre();
+                String local = localWords(f.local(), pair ? "centre " + f.partner() : "the typical centre");
+                String minimum = Wording.plain(100 * LocalEffects.MINIMUM_EXCESS, 3);
+                if (f.kind().flagged()) {
                     shiftReasons.add(String.format(Locale.ROOT, "%s: %s; the excess interval lies entirely above the "
-                            + "minimum (%s points) and %s. The mean distance and the volume dilute a difference on "
-                            + "one side of the structure; the report shows where the centre differs.", subject,
-                            localWords, Wording.plain(100 * LocalEffects.MINIMUM_EXCESS, 3), testWords));
-                } else {
-                    who.forEach(g -> flags.put(g, FLAG_UNCERTAIN));
-                    uncertainReasons.add(String.format(Locale.ROOT, "Centre %s: %s; the excess interval lies entirely "
-                            + "above the minimum (%s points), but %s.", who.get(0), localWords,
-                            Wording.plain(100 * LocalEffects.MINIMUM_EXCESS, 3), test.canReachAlpha()
-                                    ? testWords + ", so the evidence disagrees"
-                                    : "this design cannot confirm it with the permutation test (" + testWords + ")"));
+                            + "minimum (%s points) and %s. The mean distance and the volume dilute a difference on one "
+                            + "side of the structure; the report shows where the centre differs.", subject, local,
+                            minimum, own));
+                } else if (f.kind() == CentreFindings.Kind.EVIDENCE_DISAGREES) {
+                    uncertainReasons.add(String.format(Locale.ROOT, "%s: %s; the excess interval lies entirely above "
+                            + "the minimum (%s points), but %s.", subject, local, minimum, disagree(f, own)));
                 }
                 if (e.pointBeyond(s.minimumShiftMm(), s.minimumVolumeShiftPercent())) {
                     pointLarge.add(words);
                 }
                 continue;
             }
-            if (significant && (surface || volume)) {
-                for (String g : who) {
-                    flagged.add(g);
-                    flags.put(g, pair ? FLAG_PAIR : FLAG_SHIFT);
+            String beyond = f.surfaceBeyond() && f.volumeSupported() ? "surface and volume intervals lie"
+                    : f.surfaceBeyond() ? "surface interval lies"
+                    : "volume interval lies (with the surface interval on the same side of 0)";
+            switch (f.kind()) {
+                case SHIFT -> shiftReasons.add(String.format(Locale.ROOT,
+                        "%s; the %s interval lies entirely beyond the minimum shift (%s) and %s.", words, which,
+                        minimumWords(s), own));
+                case PAIR_DIFFERS -> shiftReasons.add(String.format(Locale.ROOT,
+                        "%s; the %s interval lies entirely beyond the minimum shift (%s) and %s. With only two "
+                                + "centres each is measured against the other, so the data cannot tell which "
+                                + "centre departs from the common way of drawing: both are flagged as a pair. "
+                                + "Settle it against the written protocol or a reading from a third centre.",
+                        words, which, minimumWords(s), own));
+                case EVIDENCE_DISAGREES -> uncertainReasons.add(String.format(Locale.ROOT,
+                        "%s; the %s beyond the minimum shift (%s), but %s.", words, beyond, minimumWords(s),
+                        disagree(f, own)));
+                case VOLUME_WITHOUT_SURFACE -> uncertainReasons.add(String.format(Locale.ROOT,
+                        "%s; %s, and the volume interval lies beyond %s%%, but the surface distance does not move "
+                                + "the same way with confidence, so the volume difference alone does not flag the "
+                                + "centre (a volume ratio moves far more than the boundary on small structures); "
+                                + "look at the masks.", words, own, Wording.plain(s.minimumVolumeShiftPercent(), 3)));
+                case SIZE_UNCERTAIN -> uncertainReasons.add(String.format(Locale.ROOT,
+                        "%s; %s, and the interval excludes no shift and reaches past the minimum shift (%s) without "
+                                + "lying beyond it, so the size of the shift is uncertain.", words, own,
+                        minimumWords(s)));
+                case NEGLIGIBLE -> negligible = true;
+                default -> {
                 }
-                shiftReasons.add(pair
-                        ? String.format(Locale.ROOT,
-                                "%s; the %s interval lies entirely beyond the minimum shift (%s) and %s. With only two "
-                                        + "centres each is measured against the other, so the data cannot tell which "
-                                        + "centre departs from the common way of drawing: both are flagged as a pair. "
-                                        + "Settle it against the written protocol or a reading from a third centre.",
-                                words, which, minimumWords(s), testWords)
-                        : String.format(Locale.ROOT, "%s; the %s interval lies entirely beyond the minimum shift (%s) and %s.",
-                                words, which, minimumWords(s), testWords));
-            } else if (surface || volume) {
-                who.forEach(g -> flags.put(g, FLAG_UNCERTAIN));
-                String beyond = surface && volume ? "surface and volume intervals lie"
-                        : surface ? "surface interval lies" : "volume interval lies (with the surface interval on the same side of 0)";
-                uncertainReasons.add(test.canReachAlpha()
-                        ? String.format(Locale.ROOT, "%s; the %s beyond the minimum shift (%s) but %s, so the evidence "
-                                + "disagrees.", words, beyond, minimumWords(s), testWords)
-                        : String.format(Locale.ROOT, "%s; the %s beyond the minimum shift (%s), but this design "
-                                + "cannot confirm it with the permutation test (%s).", words, beyond, minimumWords(s),
-                                testWords));
-            } else if (volumeAlone) {
-                who.forEach(g -> flags.put(g, FLAG_UNCERTAIN));
-                uncertainReasons.add(String.format(Locale.ROOT,
-                        "%s; the volume interval lies beyond %s%% but the surface distance does not move the same "
-                                + "way with confidence, so the volume difference alone does not flag the centre "
-                                + "(a volume ratio moves far more than the boundary on small structures); look at "
-                                + "the masks.", words, Wording.plain(s.minimumVolumeShiftPercent(), 3)));
-            } else if (uncertain) {
-                who.forEach(g -> flags.put(g, FLAG_UNCERTAIN));
-                uncertainReasons.add(String.format(Locale.ROOT,
-                        "%s; the interval excludes no shift and reaches past the minimum shift (%s) without "
-                                + "lying beyond it, so the size of the shift is uncertain.", words, minimumWords(s)));
-            } else {
-                who.forEach(g -> flags.put(g, FLAG_NONE));
             }
             if (e.pointBeyond(s.minimumShiftMm(), s.minimumVolumeShiftPercent())) {
                 pointLarge.add(words);
@@ -300,12 +238,12 @@ public final class VerdictRules {
             rule = pair ? CENTRE_PAIR_DIFFERS : CENTRE_SHIFT;
             reasons.addAll(shiftReasons);
         }
-        if (significant && flagged.isEmpty()) {
+        if ((significant || negligible) && flagged.isEmpty()) {
             verdict = max(verdict, Verdict.REVIEW);
             rule = rule == null ? SIGNIFICANT_BUT_SMALL : rule;
             reasons.add(String.format(Locale.ROOT,
                     "The centres differ (%s) but no centre's interval lies entirely beyond the minimum shift (%s).",
-                    testWords, minimumWords(s)));
+                    significant ? testWords : "a centre's own test rejects", minimumWords(s)));
         }
         if (!uncertainReasons.isEmpty()) {
             verdict = max(verdict, Verdict.REVIEW);
@@ -359,10 +297,7 @@ public final class VerdictRules {
                     + " (a part left out, or an empty mask where every other reader draws the structure); they are "
                     + "listed apart and do not count as cases to adjudicate.");
         }
-        flagged.sort(null);
-        Map<String, String> sortedFlags = new LinkedHashMap<>();
-        centres.stream().map(GroupEffect::group).sorted().forEach(g -> sortedFlags.put(g, flags.getOrDefault(g, FLAG_NONE)));
-        return new Decision(verdict, rule, reasons, flagged, sortedFlags, ctx.designLimits(), ctx.emptyGroups());
+        return new Decision(verdict, rule, reasons, flagged, centres.flags(), ctx.designLimits(), ctx.emptyGroups());
     }
 
     /** "23% [15%, 31%] of its border lies more than 2 mm outside ..., 18 points [10, 26] more than ...". */
@@ -402,12 +337,11 @@ public final class VerdictRules {
                 g.level() == EmptyGroup.Level.CENTRE ? "its" : "the reader's", labels.isEmpty() ? "." : labels);
     }
 
-    /**
-     * Whether the signed-surface interval excludes 0 on the side the volume interval points to:
-     * the volume criterion counts only when the boundary moves the same way.
-     */
-    static boolean surfaceSameWay(GroupEffect e) {
-        return e.volumeRatioLo() > 1 && e.signedSurfaceLoMm() > 0 || e.volumeRatioHi() < 1 && e.signedSurfaceHiMm() < 0;
+    /** Why an interval beyond the minimum does not flag: the own test, or the design. */
+    private static String disagree(CentreFindings.Finding f, String own) {
+        return f.test() != null && !f.test().canReachAlpha()
+                ? "this design cannot confirm it with the centre's own test (" + own + ")"
+                : own + ", so the evidence disagrees";
     }
 
     private static Verdict max(Verdict a, Verdict b) {
@@ -417,6 +351,23 @@ public final class VerdictRules {
     private static String minimumWords(ShiftSettings s) {
         return Wording.plain(s.minimumShiftMm(), 3) + " mm or " + Wording.plain(s.minimumVolumeShiftPercent(), 3)
                 + "% volume";
+    }
+
+    /** The centre's own test in words, e.g. "its own test against the other centres' readers gives p = ...". */
+    static String ownTestWords(CentreVsRest.Result t, boolean pair, ShiftSettings s) {
+        if (t == null || Double.isNaN(t.pValue())) {
+            return "its own test is not applicable";
+        }
+        String p = Wording.pValue(t.pValue(), t.permutations(), t.exact(), "distinct reader splits",
+                "random reader splits");
+        String against = pair ? "the test of the pair" : "its own test against the other centres' readers";
+        String adjusted = pair ? "" : ", Holm-adjusted " + Wording.plain(t.adjustedP(), 3);
+        if (!t.canReachAlpha()) {
+            return String.format(Locale.ROOT, "%s gives %s%s, and cannot reach %s (smallest reachable p = %s)",
+                    against, p, adjusted, Wording.alpha(s.alpha()), Wording.plain(t.minP(), 3));
+        }
+        return String.format(Locale.ROOT, "%s gives %s%s, %s %s", against, p, adjusted,
+                t.rejects(s.alpha()) ? "at most" : "above", Wording.alpha(s.alpha()));
     }
 
     static String testWords(PermutationResult t, ShiftSettings s) {

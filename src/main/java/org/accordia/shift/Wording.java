@@ -97,21 +97,34 @@ public final class Wording {
      * </ul>
      */
     public static String pValue(PermutationResult t) {
-        if (Double.isNaN(t.pValue())) {
+        return pValue(t.pValue(), t.permutations(), t.exact(), "distinct reader partitions",
+                "random reader permutations");
+    }
+
+    /**
+     * As {@link #pValue(PermutationResult)} for any permutation p-value.
+     *
+     * @param p            the p-value (exact: k/n; Monte Carlo: (1 + k)/(1 + m))
+     * @param permutations n (exact) or m (Monte Carlo)
+     * @param exact        whether all n were enumerated
+     * @param exactNoun    what was enumerated, e.g. "distinct reader partitions"
+     * @param randomNoun   what was drawn, e.g. "random reader permutations"
+     */
+    public static String pValue(double p, long permutations, boolean exact, String exactNoun, String randomNoun) {
+        if (Double.isNaN(p)) {
             return "p undefined";
         }
-        if (t.exact()) {
-            long n = t.permutations();
-            long k = Math.round(t.pValue() * n);
-            return String.format(Locale.ROOT, "p = %s (%d of %,d distinct reader partitions%s)", plain(t.pValue(), 3),
-                    k, n, k == 1 ? ", the smallest reachable" : "");
+        if (exact) {
+            long n = permutations;
+            long k = Math.round(p * n);
+            return String.format(Locale.ROOT, "p = %s (%d of %,d %s%s)", plain(p, 3), k, n, exactNoun,
+                    k == 1 ? ", the smallest reachable" : "");
         }
-        long m = t.permutations();
-        long k = Math.max(0, Math.round(t.pValue() * (m + 1)) - 1);
+        long m = permutations;
+        long k = Math.max(0, Math.round(p * (m + 1)) - 1);
         double[] ci = clopperPearson(k, m);
-        return String.format(Locale.ROOT,
-                "p = %s (Monte Carlo: %,d of %,d random reader permutations at least as large; 95%% interval %s to %s)",
-                plain(t.pValue(), 2), k, m, plain(ci[0], 2), plain(ci[1], 2));
+        return String.format(Locale.ROOT, "p = %s (Monte Carlo: %,d of %,d %s at least as large; 95%% interval %s "
+                + "to %s)", plain(p, 2), k, m, randomNoun, plain(ci[0], 2), plain(ci[1], 2));
     }
 
     /**

@@ -57,11 +57,15 @@ class TablesTest {
     @Test
     void centreRowFollowsTheContract() {
         assertEquals(List.of("label", "centre", "readers", "cases", "signed_surface_mm", "signed_surface_lo",
-            "signed_surface_hi", "volume_ratio", "volume_ratio_lo", "volume_ratio_hi", "flag", "border_outside_share",
+            "signed_surface_hi", "volume_ratio", "volume_ratio_lo", "volume_ratio_hi", "flag", "effect_mm",
+            "effect_lo_mm", "effect_hi_mm", "effect_volume_ratio", "effect_volume_ratio_lo", "effect_volume_ratio_hi",
+            "test_p", "test_p_holm", "test_min_p", "test_splits", "finding", "border_outside_share",
             "border_outside_excess", "border_outside_excess_lo", "border_outside_excess_hi", "border_inside_share",
             "border_inside_excess", "border_inside_excess_lo", "border_inside_excess_hi"), Tables.CENTRES);
-        CentreRow row = new CentreRow("lesion", "hill", 3, 12, -0.25, Double.NaN, 0.125, 1.0, 0.9876543219, 1.1, "none");
+        CentreRow row = new CentreRow("lesion", "hill", 3, 12, -0.25, Double.NaN, 0.125, 1.0, 0.9876543219, 1.1, "none",
+            -0.5, -0.875, -0.125, 0.8, 0.7, 0.9, 0.25, 0.75, 1.0 / 84, 84, "none");
         assertEquals(List.of("lesion", "hill", "3", "12", "-0.25", "", "0.125", "1", "0.987654", "1.1", "none",
+            "-0.5", "-0.875", "-0.125", "0.8", "0.7", "0.9", "0.25", "0.75", "0.0119048", "84", "none",
             "", "", "", "", "", "", "", ""), rendered(Tables.centreRow(row)));
     }
 

@@ -17,8 +17,9 @@ class DecisionContextTest {
         List<GroupEffect> centres = List.of(VerdictRulesTest.centre("esterhaven", 3.0, 2.5, 3.5),
             VerdictRulesTest.centre("norvale", -3.0, -3.5, -2.5), VerdictRulesTest.centre("quillbay", 0.0, -0.2, 0.2));
         EmptyGroup e = new EmptyGroup(EmptyGroup.Level.CENTRE, "norvale", "norvale", 30, 10, List.of(5, 6));
-        VerdictRules.Decision d = VerdictRules.decide(VerdictRulesTest.test(0.004, 0.0036), centres, centres, 0, 10,
-            List.of(), S, new VerdictRules.Context(List.of(), List.of(e), List.of(), 0));
+        VerdictRules.Decision d = VerdictRules.decide(VerdictRulesTest.test(0.004, 0.0036),
+            VerdictRulesTest.findings(centres, "esterhaven", 0.004, 0.0036), 0, 10, List.of(), S,
+            new VerdictRules.Context(List.of(), List.of(e), List.of(), 0));
         assertEquals(Verdict.REVIEW, d.verdict());
         assertEquals("empty-centre", d.rule());
         assertTrue(d.reasons().get(0).startsWith("Centre norvale: all 30 masks are empty"), d.reasons().get(0));
@@ -33,12 +34,13 @@ class DecisionContextTest {
         GroupEffect only = new GroupEffect("esterhaven", "esterhaven", 3, 10, Double.NaN, Double.NaN, Double.NaN,
             Double.NaN, Double.NaN, Double.NaN);
         List<DesignLimit> limits = DesignLimits.of(Map.of("esterhaven", 3), 0.05, 100_000, 9_999);
-        VerdictRules.Decision d = VerdictRules.decide(none, List.of(only), List.of(), 0, 10, List.of(), S,
+        CentreFindings.Result one = CentreFindings.judge(List.of(), List.of(only), S);
+        VerdictRules.Decision d = VerdictRules.decide(none, one, 0, 10, List.of(), S,
             new VerdictRules.Context(limits, List.of(), List.of(), 0));
         assertEquals(Verdict.POOL, d.verdict());
         assertEquals("single-centre", d.rule());
         assertTrue(d.reasons().get(0).startsWith("Single centre: a between-centre shift is not testable"));
-        VerdictRules.Decision busy = VerdictRules.decide(none, List.of(only), List.of(), 5, 10, List.of(), S,
+        VerdictRules.Decision busy = VerdictRules.decide(none, one, 5, 10, List.of(), S,
             new VerdictRules.Context(limits, List.of(), List.of(), 0));
         assertEquals("many-cases-to-adjudicate", busy.rule());
         assertTrue(busy.reasons().stream().anyMatch(r -> r.startsWith("Single centre")));
@@ -50,12 +52,15 @@ class DecisionContextTest {
         PermutationResult t = new PermutationResult(5.0, 0.1, 10, true, 0.1, false, "");
         List<GroupEffect> centres = List.of(VerdictRulesTest.centre("esterhaven", 1.6, 1.2, 2.0),
             VerdictRulesTest.centre("norvale", -1.6, -2.0, -1.2));
-        VerdictRules.Decision d = VerdictRules.decide(t, centres, centres, 0, 10, List.of(), S,
+        CentreFindings.Result pair = CentreFindings.judge(List.of(
+                new CentreVsRest.Result("esterhaven", 3, 5.0, 0.1, 0.1, 10, true, 0.1, false, false),
+                new CentreVsRest.Result("norvale", 3, 5.0, 0.1, 0.1, 10, true, 0.1, false, false)), centres, S);
+        VerdictRules.Decision d = VerdictRules.decide(t, pair, 0, 10, List.of(), S,
             new VerdictRules.Context(DesignLimits.of(Map.of("esterhaven", 3, "norvale", 3), 0.05, 100_000, 9_999),
                 List.of(), List.of(), 0));
         String all = String.join(" ", d.reasons());
         assertTrue(!all.contains("evidence disagrees"), all);
-        assertTrue(all.contains("p = 0.1 (1 of 10 distinct reader partitions, the smallest reachable)"), all);
+        assertTrue(all.contains("p = 0.1 (1 of 10 distinct reader splits, the smallest reachable)"), all);
         assertTrue(all.contains("this design cannot confirm it"), all);
         assertEquals(List.of("cannot-reach-alpha", "two-centres"), d.designLimits().stream().map(x -> x.kind().key()).toList());
     }

@@ -56,6 +56,14 @@ class LocalEffectsTest {
         assertEquals(2, l.get(0).cases());
     }
 
+    /** Findings with centre a's own test at p and the others at 0.5, and the local effects. */
+    static CentreFindings.Result withLocal(List<GroupEffect> effects, double p, List<LocalEffect> local) {
+        List<CentreVsRest.Result> tests = effects.stream().map(e -> e.group().equals("a")
+                ? new CentreVsRest.Result(e.group(), 3, 9.0, p, p, 84, true, 1.0 / 84, true, p <= 0.05)
+                : new CentreVsRest.Result(e.group(), 3, 1.0, 0.5, 0.5, 84, true, 1.0 / 84, true, false)).toList();
+        return CentreFindings.judge(tests, effects, local, ShiftSettings.defaults());
+    }
+
     @Test
     void excessIsAgainstTheMedianOrTheOtherCentre() {
         double[] three = LocalEffects.excess(new double[] {0.3, 0.05, Double.NaN, 0.07});
@@ -82,16 +90,16 @@ class LocalEffectsTest {
         LocalEffect c = new LocalEffect("c", 3, 12, 2.0, 0.07, 0.0, -0.02, 0.02, 0.10, 0.0, -0.01, 0.02,
             List.of(0.07, 0.07, 0.07, 0.07, 0.07, 0.07));
         VerdictRules.Context ctx = new VerdictRules.Context(List.of(), List.of(), List.of(a, b, c), 0);
-        VerdictRules.Decision d = VerdictRules.decide(VerdictRulesTest.test(0.004, 0.0036), centres, centres, 0, 12,
-            List.of(), s, ctx);
+        VerdictRules.Decision d = VerdictRules.decide(VerdictRulesTest.test(0.004, 0.0036),
+            withLocal(centres, 0.004, List.of(a, b, c)), 0, 12, List.of(), s, ctx);
         assertEquals("centre-shift", d.rule(), d.reasons().toString());
         assertEquals(List.of("a"), d.flaggedCentres());
         assertEquals("Centre a: 25% of its readers' border lies more than 2 mm outside the other centres' consensus, "
             + "18 points [13, 23] more than the typical centre; most on the +x side (60% of the border there); the "
             + "excess interval lies entirely above the minimum (10 points)", d.reasons().get(0).substring(0,
-                d.reasons().get(0).indexOf(" and the permutation")));
-        VerdictRules.Decision quiet = VerdictRules.decide(VerdictRulesTest.test(0.30, 0.0036), centres, centres, 0, 12,
-            List.of(), s, ctx);
+                d.reasons().get(0).indexOf(" and its own test")));
+        VerdictRules.Decision quiet = VerdictRules.decide(VerdictRulesTest.test(0.30, 0.0036),
+            withLocal(centres, 0.30, List.of(a, b, c)), 0, 12, List.of(), s, ctx);
         assertEquals("uncertain-centre-effect", quiet.rule());
         assertEquals("uncertain", quiet.centreFlags().get("a"));
         assertEquals("none", quiet.centreFlags().get("b"));

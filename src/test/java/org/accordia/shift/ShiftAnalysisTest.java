@@ -39,6 +39,7 @@ class ShiftAnalysisTest {
         }
         List<CaseDistances> distances = new ArrayList<>();
         List<ReaderCaseMeasure> measures = new ArrayList<>();
+        List<ReaderCaseMeasure> common = new ArrayList<>();
         List<ReaderMeasure> variance = new ArrayList<>();
         List<CaseSummary> summaries = new ArrayList<>();
         for (int k = 0; k < 12; k++) {
@@ -65,12 +66,16 @@ class ShiftAnalysisTest {
                         .mapToDouble(Map.Entry::getValue).average().orElseThrow();
                 double signed = r.get(id) - others;
                 measures.add(new ReaderCaseMeasure(id, centreOf.get(id), caseId, signed, Math.pow(r.get(id) / others, 3)));
+                // the common reference of the case: the mean radius of all its readers
+                double all = r.values().stream().mapToDouble(Double::doubleValue).average().orElseThrow();
+                common.add(new ReaderCaseMeasure(id, centreOf.get(id), caseId, r.get(id) - all,
+                        Math.pow(r.get(id) / all, 3)));
                 variance.add(new ReaderMeasure(caseId, centreOf.get(id), id, r.get(id)));
             }
             summaries.add(new CaseSummary(caseId, k == 5 ? 0.6 : 0.85, 4.0, 0, readers.size()));
         }
         return new LabelShiftInput(1, "lesion", "|radius difference| (mm)", centreOf, distances, measures, measures,
-                "effective radius (mm)", variance, summaries, null);
+                common, "effective radius (mm)", variance, summaries, null);
     }
 
     static final ShiftSettings FAST = ShiftSettings.defaults().withResampling(999, 500, 20, 0);
@@ -83,7 +88,7 @@ class ShiftAnalysisTest {
         assertEquals("centre-shift", s.rule());
         // One-vs-rest contrasts: the two other centres sit 1 mm inside a consensus that includes
         // harbour's readers. This test used to allow them to be flagged too (on the inside); that
-        // was the mirror defect. The median-centred offsets flag harbour only.
+        // was the mirror defect. Their own centre-vs-rest tests do not reject: harbour only.
         assertEquals(List.of("harbour"), s.shift().flaggedCentres());
         for (CentreRow row : report.centreRows()) {
             if (!row.centre().equals("harbour")) {
@@ -95,8 +100,19 @@ class ShiftAnalysisTest {
         assertEquals(280, s.shift().permutations());
         assertTrue(s.shift().pValue() <= 0.05);
         assertTrue(s.reasons().get(0).startsWith("Centre harbour draws "), s.reasons().get(0));
-        assertTrue(s.reasons().get(0).contains("outside the typical centre"), s.reasons().get(0));
-        assertTrue(s.reasons().get(0).contains("against the other centres' consensus it draws"), s.reasons().get(0));
+        assertTrue(s.reasons().get(0).contains("outside the other centres"), s.reasons().get(0));
+        assertTrue(s.reasons().get(0).contains("its own test against the other centres' readers gives p = 0.0119"),
+                s.reasons().get(0));
+        // harbour's split is the most extreme of C(9, 3) = 84; Holm over 3 centres: 3/84
+        CentreVsRest.Result own = report.centreFindings().of("harbour").test();
+        assertEquals(1.0 / 84, own.pValue(), 1e-12);
+        assertEquals(3.0 / 84, own.adjustedP(), 1e-12);
+        assertEquals(84, own.permutations());
+        for (CentreFindings.Finding f : report.centreFindings().findings()) {
+            if (!f.centre().equals("harbour")) {
+                assertTrue(f.test().adjustedP() > 0.05, f.toString());
+            }
+        }
         assertEquals(List.of("lk06"), s.casesToAdjudicate().stream().map(CaseToAdjudicate::caseId).toList());
         assertEquals(List.of("case", "centre", "reader", "residual"), new ArrayList<>(s.varianceComponents().keySet()));
         assertTrue(s.shift().betweenShare() > 0.5, "between-centre share " + s.shift().betweenShare());
@@ -105,6 +121,10 @@ class ShiftAnalysisTest {
         assertEquals("shift", harbour.flag());
         assertTrue(harbour.signedSurfaceLoMm() > 1.0);
         assertTrue(harbour.volumeRatio() > 1.15);
+        // the judged effect: planted 2.0 mm against the mean of the other centres
+        assertTrue(harbour.effectLoMm() > 1.0 && harbour.effectLoMm() < 2.0 && harbour.effectHiMm() > 2.0,
+                harbour.toString());
+        assertEquals("shift", harbour.finding());
         assertTrue(s.shift().notes().isEmpty() || s.shift().notes().stream().noneMatch(n -> n.contains("removed")));
     }
 
@@ -156,7 +176,7 @@ class ShiftAnalysisTest {
         Map<String, String> centreOf = Map.of("a", "solo", "b", "solo");
         LabelShiftInput in = new LabelShiftInput(2, "cyst", "1 - Jaccard", centreOf,
                 List.of(new CaseDistances("k1", List.of("a", "b"), new double[][] {{0, 0.2}, {0.2, 0}})),
-                List.of(), List.of(), "none", List.of(), List.of(new CaseSummary("k1", 0.9, 2, 0, 2)), null);
+                List.of(), List.of(), List.of(), "none", List.of(), List.of(new CaseSummary("k1", 0.9, 2, 0, 2)), null);
         LabelShiftReport report = ShiftAnalysis.analyse(in, FAST);
         JsonNode root = new ObjectMapper().readTree(new ObjectMapper().writeValueAsString(report.summary()));
         assertTrue(root.get("shift").get("p_value").isNull());
