@@ -173,6 +173,13 @@ public final class AnalysisReport {
             if (!items.isEmpty()) {
                 h.list(items);
             }
+            List<org.accordia.shift.LocalEffect> local = l.shift().localEffects();
+            if (LocalPicture.worthShowing(local, org.accordia.shift.LocalEffects.MINIMUM_EXCESS)) {
+                h.figure(LocalPicture.chart(local, l.name(), WIDTH, 420), l.name() + ": where on the structure the "
+                    + "centres differ. Bars: share of each centre's border more than the structure's tolerance outside "
+                    + "the other centres' consensus, per direction from the consensus centre.",
+                    "Bar chart of the share of border beyond tolerance per centre and direction for " + l.name());
+            }
         }
     }
 

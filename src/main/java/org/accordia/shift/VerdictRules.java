@@ -164,8 +164,8 @@ public final class VerdictRules {
                     : "Centre " + f.centre() + " " + e.describe("the other centres", s.minimumShiftMm(),
                             s.minimumVolumeShiftPercent());
             String own = ownTestWords(f.test(), pair, s);
-            String which = f.surfaceBeyond() && f.volumeSupported() ? "surface and volume" : f.surfaceBeyond()
-                    ? "surface" : "volume (with the surface interval on the same side of 0)";
+            String which = f.surfaceBeyond() && f.volumeSupported() ? "surface and volume intervals lie" : f.surfaceBeyond()
+                    ? "surface interval lies" : "volume interval, with the surface interval on the same side of 0, lies";
             boolean localOnly = f.localBeyond() && !f.surfaceBeyond() && !f.volumeSupported();
             if (localOnly && f.kind() != CentreFindings.Kind.NONE) {
                 String subject = pair ? "Centres " + f.centre() + " and " + f.partner() + " differ on one side of the "
@@ -188,13 +188,13 @@ public final class VerdictRules {
             }
             String beyond = f.surfaceBeyond() && f.volumeSupported() ? "surface and volume intervals lie"
                     : f.surfaceBeyond() ? "surface interval lies"
-                    : "volume interval lies (with the surface interval on the same side of 0)";
+                    : "volume interval, with the surface interval on the same side of 0, lies";
             switch (f.kind()) {
                 case SHIFT -> shiftReasons.add(String.format(Locale.ROOT,
-                        "%s; the %s interval lies entirely beyond the minimum shift (%s) and %s.", words, which,
+                        "%s; the %s entirely beyond the minimum shift (%s) and %s.", words, which,
                         minimumWords(s), own));
                 case PAIR_DIFFERS -> shiftReasons.add(String.format(Locale.ROOT,
-                        "%s; the %s interval lies entirely beyond the minimum shift (%s) and %s. With only two "
+                        "%s; the %s entirely beyond the minimum shift (%s) and %s. With only two "
                                 + "centres each is measured against the other, so the data cannot tell which "
                                 + "centre departs from the common way of drawing: both are flagged as a pair. "
                                 + "Settle it against the written protocol or a reading from a third centre.",
@@ -363,8 +363,11 @@ public final class VerdictRules {
         String against = pair ? "the test of the pair" : "its own test against the other centres' readers";
         String adjusted = pair ? "" : ", Holm-adjusted " + Wording.plain(t.adjustedP(), 3);
         if (!t.canReachAlpha()) {
-            return String.format(Locale.ROOT, "%s gives %s%s, and cannot reach %s (smallest reachable p = %s)",
-                    against, p, adjusted, Wording.alpha(s.alpha()), Wording.plain(t.minP(), 3));
+            return pair
+                    ? String.format(Locale.ROOT, "%s gives %s, and cannot reach %s (smallest reachable p = %s)",
+                            against, p, Wording.alpha(s.alpha()), Wording.plain(t.minP(), 3))
+                    : String.format(Locale.ROOT, "%s gives %s%s, and cannot reach %s once adjusted for testing every "
+                            + "centre (Holm)", against, p, adjusted, Wording.alpha(s.alpha()));
         }
         return String.format(Locale.ROOT, "%s gives %s%s, %s %s", against, p, adjusted,
                 t.rejects(s.alpha()) ? "at most" : "above", Wording.alpha(s.alpha()));
