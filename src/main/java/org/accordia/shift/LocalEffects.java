@@ -77,8 +77,8 @@ public final class LocalEffects {
         double[] outPoint = new double[ng];
         double[] inPoint = new double[ng];
         for (int g = 0; g < ng; g++) {
-            outPoint[g] = mean(outShare[g], null);
-            inPoint[g] = mean(inShare[g], null);
+            outPoint[g] = EffectEstimator.mean(outShare[g], null);
+            inPoint[g] = EffectEstimator.mean(inShare[g], null);
         }
         double[] outExcess = excess(outPoint);
         double[] inExcess = excess(inPoint);
@@ -93,8 +93,8 @@ public final class LocalEffects {
             double[] ob = new double[ng];
             double[] ib = new double[ng];
             for (int g = 0; g < ng; g++) {
-                ob[g] = mean(outShare[g], draw);
-                ib[g] = mean(inShare[g], draw);
+                ob[g] = EffectEstimator.mean(outShare[g], draw);
+                ib[g] = EffectEstimator.mean(inShare[g], draw);
             }
             ob = excess(ob);
             ib = excess(ib);
@@ -109,8 +109,8 @@ public final class LocalEffects {
             for (int c = 0; c < nc; c++) {
                 withBorder += Double.isNaN(outShare[g][c]) ? 0 : 1;
             }
-            double[] oi = interval(outBoot[g], withBorder);
-            double[] ii = interval(inBoot[g], withBorder);
+            double[] oi = EffectEstimator.percentileInterval(outBoot[g], withBorder);
+            double[] ii = EffectEstimator.percentileInterval(inBoot[g], withBorder);
             List<Double> byDir = new ArrayList<>();
             for (int d = 0; d < BorderProfile.DIRECTIONS; d++) {
                 byDir.add(dirBorder[g][d] == 0 ? Double.NaN : (double) dirOut[g][d] / dirBorder[g][d]);
@@ -148,30 +148,5 @@ public final class LocalEffects {
             }
         }
         return r;
-    }
-
-    private static double mean(double[] values, int[] draw) {
-        double s = 0;
-        int n = 0;
-        int m = draw == null ? values.length : draw.length;
-        for (int i = 0; i < m; i++) {
-            double v = values[draw == null ? i : draw[i]];
-            if (!Double.isNaN(v)) {
-                s += v;
-                n++;
-            }
-        }
-        return n == 0 ? Double.NaN : s / n;
-    }
-
-    private static double[] interval(double[] replicates, int cases) {
-        if (cases < 2) {
-            return new double[] {Double.NaN, Double.NaN};
-        }
-        double[] kept = Arrays.stream(replicates).filter(v -> !Double.isNaN(v)).sorted().toArray();
-        if (kept.length == 0) {
-            return new double[] {Double.NaN, Double.NaN};
-        }
-        return new double[] {EffectEstimator.quantile(kept, 0.025), EffectEstimator.quantile(kept, 0.975)};
     }
 }

@@ -93,12 +93,7 @@ class BorderProfileTest {
         assertEquals(15, rows.size());
         for (ReaderPerformance row : rows) {
             int j = readers.indexOf(row.reader());
-            long keep = refs.keepMask(row.reference(), j);
-            StapleResult s = refs.staple(row.reference(), j);
-            boolean[] cons = new boolean[d[0].length];
-            for (int i = 0; i < cons.length; i++) {
-                cons[i] = s.weightOfPattern(PatternHistogram.compress(Fixtures.pattern(d, i), keep)) >= 0.5;
-            }
+            boolean[] cons = SignedSurfaceTest.referenceMask(refs, row, j, d);
             assertNotNull(row.border());
             assertEquals(BorderProfile.bruteForce(d[j], cons, nx, ny, nz, sp[0], sp[1], sp[2], tolerance), row.border(),
                 row.reader() + " " + row.reference());
