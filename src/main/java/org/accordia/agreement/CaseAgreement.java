@@ -1,5 +1,6 @@
 package org.accordia.agreement;
 
+import org.accordia.grid.Box;
 import java.util.List;
 
 /**
@@ -27,7 +28,7 @@ import java.util.List;
  * @param volumesMl each reader's structure volume, ml, reader order
  * @param voxelCounts each reader's structure voxel count, reader order
  * @param unionBox bounding box (grid indices) of the union of all readers' structure;
- *     {@link Borders.Box#EMPTY} when every reader's mask is empty
+ *     {@link Box#EMPTY} when every reader's mask is empty
  * @param toleranceMm the NSD tolerance τ, mm
  * @param voxelVolumeMl volume of one voxel, ml
  * @param histogram decision-pattern histogram over the WHOLE grid (bit j = reader j)
@@ -36,7 +37,7 @@ public record CaseAgreement(String caseId, String label, List<String> readers, L
                             List<PairMetrics> pairs, double fleissKappa, long kappaRegionVoxels,
                             double kappaMarginMm, double meanDice, double medianDice, int bothEmptyPairs,
                             int oneEmptyPairs, int distancePairs, double meanHd95Mm, double meanAssdMm,
-                            List<Double> volumesMl, List<Long> voxelCounts, Borders.Box unionBox,
+                            List<Double> volumesMl, List<Long> voxelCounts, Box unionBox,
                             double toleranceMm, double voxelVolumeMl, PatternHistogram histogram) {
     public CaseAgreement {
         readers = List.copyOf(readers);

@@ -1,5 +1,6 @@
 package org.accordia.agreement;
 
+import org.accordia.stats.Quantiles;
 import java.lang.invoke.MethodHandles;
 import java.lang.invoke.VarHandle;
 import java.nio.ByteOrder;
@@ -12,9 +13,10 @@ import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.CompletionException;
 import java.util.concurrent.Executor;
 import java.util.concurrent.atomic.AtomicInteger;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.accordia.io.Geometry;
 import org.accordia.io.LabelVolume;
+import org.accordia.study.Protocol;
 import org.accordia.study.ReaderId;
 import org.accordia.study.Structure;
 
@@ -51,6 +53,7 @@ public final class CaseAgreementEngine {
     private final double toleranceMm;
     private final double kappaMarginMm;
     private final Executor executor;
+    private final Protocol.Hd95Mode hd95;
 
     /** NSD tolerance and kappa margin τ (mm), single-threaded. */
     public CaseAgreementEngine(double toleranceMm) {
@@ -63,6 +66,16 @@ public final class CaseAgreementEngine {
      * @param executor runs parallel parts; {@code null} for the caller's thread only
      */
     public CaseAgreementEngine(double toleranceMm, double kappaMarginMm, Executor executor) {
+        this(toleranceMm, kappaMarginMm, Protocol.Hd95Mode.PER_DIRECTION, executor);
+    }
+
+    /**
+     * @param toleranceMm NSD tolerance τ, mm, ≥ 0
+     * @param kappaMarginMm dilation radius of the kappa region, mm, ≥ 0
+     * @param hd95 the HD95 variant of every pair's {@code hd95Mm} (protocol {@code agreement.hd95})
+     * @param executor runs parallel parts; {@code null} for the caller's thread only
+     */
+    public CaseAgreementEngine(double toleranceMm, double kappaMarginMm, Protocol.Hd95Mode hd95, Executor executor) {
         if (!(toleranceMm >= 0) || Double.isInfinite(toleranceMm)) {
             throw new IllegalArgumentException("tolerance must be finite and non-negative");
         }
@@ -72,6 +85,7 @@ public final class CaseAgreementEngine {
         this.toleranceMm = toleranceMm;
         this.kappaMarginMm = kappaMarginMm;
         this.executor = executor;
+        this.hd95 = java.util.Objects.requireNonNull(hd95, "hd95");
     }
 
     public double toleranceMm() {
@@ -394,7 +408,7 @@ public final class CaseAgreementEngine {
             for (int b = a + 1; b < r; b++) {
                 SurfaceMetrics sm = surface[a][b] != null ? surface[a][b] : SurfaceMetrics.undefined(toleranceMm);
                 pairs.add(PairMetrics.of(caseId, st.name(), readers.get(a), readers.get(b), counts[a], counts[b],
-                    h.markedByBoth(a, b), voxelMl, sm, toleranceMm));
+                    h.markedByBoth(a, b), voxelMl, sm, toleranceMm, hd95));
             }
         }
         // kappa region: union dilated by the margin

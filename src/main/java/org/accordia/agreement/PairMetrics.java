@@ -1,5 +1,6 @@
 package org.accordia.agreement;
 
+import org.accordia.study.Protocol;
 import org.accordia.study.ReaderId;
 
 
@@ -12,7 +13,9 @@ import org.accordia.study.ReaderId;
  * in ml (voxel count × voxel volume); {@code relativeVolumeDifference = (V_A − V_B) / ((V_A +
  * V_B)/2)}, signed, dimensionless, in [−2, 2]; surface distances in mm between voxel centres over
  * border voxels ({@link SurfaceMetrics}); {@code nsd} is the voxel-border surface Dice at
- * {@code toleranceMm}.
+ * {@code toleranceMm}. {@code hd95Mm} is the HD95 in the variant the agreement settings name
+ * ({@code agreement.hd95}: the larger of the two directed 95th percentiles by default, or the
+ * 95th percentile of both directed sets pooled); {@code hd95PooledMm} is always the pooled one.
  *
  * <p>Empty masks: both empty → dice = jaccard = 1, relative volume difference and all distances
  * NaN, flag {@code both_empty}; exactly one empty → dice = jaccard = 0, relative volume difference
@@ -34,15 +37,27 @@ public record PairMetrics(String caseId, String label, String readerA, String ce
     }
 
     /**
+     * As {@link #of(String, String, ReaderId, ReaderId, long, long, long, double, SurfaceMetrics,
+     * double, Protocol.Hd95Mode)} with the default HD95 variant (per direction).
+     */
+    public static PairMetrics of(String caseId, String label, ReaderId a, ReaderId b, long countA, long countB,
+                                 long intersection, double voxelVolumeMl, SurfaceMetrics surface,
+                                 double toleranceMm) {
+        return of(caseId, label, a, b, countA, countB, intersection, voxelVolumeMl, surface, toleranceMm,
+            Protocol.Hd95Mode.PER_DIRECTION);
+    }
+
+    /**
      * Builds the record from the overlap counts and the surface metrics (ignored unless both
      * masks are non-empty).
      *
      * @param countA voxels of A, {@code countB} of B, {@code intersection} of both
      * @param voxelVolumeMl volume of one voxel, ml
+     * @param hd95 which HD95 variant {@code hd95Mm} holds
      */
     public static PairMetrics of(String caseId, String label, ReaderId a, ReaderId b, long countA, long countB,
                                  long intersection, double voxelVolumeMl, SurfaceMetrics surface,
-                                 double toleranceMm) {
+                                 double toleranceMm, Protocol.Hd95Mode hd95) {
         double volA = countA * voxelVolumeMl;
         double volB = countB * voxelVolumeMl;
         if (countA == 0 && countB == 0) {
@@ -59,7 +74,8 @@ public record PairMetrics(String caseId, String label, String readerA, String ce
         double dice = 2.0 * intersection / (countA + countB);
         double jaccard = (double) intersection / (countA + countB - intersection);
         return new PairMetrics(caseId, label, a.reader(), a.centre(), b.reader(), b.centre(), dice, jaccard, volA,
-            volB, rvd, surface.hdMm(), surface.hd95Mm(), surface.hd95PooledMm(), surface.assdMm(), surface.nsd(),
+            volB, rvd, surface.hdMm(), hd95 == Protocol.Hd95Mode.POOLED ? surface.hd95PooledMm() : surface.hd95Mm(),
+            surface.hd95PooledMm(), surface.assdMm(), surface.nsd(),
             toleranceMm, FLAG_NONE);
     }
 }

@@ -1,5 +1,7 @@
 package org.accordia.agreement;
 
+import org.accordia.stats.Quantiles;
+
 /**
  * Surface distances between the borders of two non-empty masks A and B, from the two directed
  * distance sets: {@code dA} = for every border voxel of A, the Euclidean distance in mm from its

@@ -7,6 +7,7 @@ import java.util.Objects;
 import org.accordia.io.Geometry;
 import org.accordia.io.ImageVolume;
 import org.accordia.io.InputException;
+import org.accordia.study.Analysability;
 import org.accordia.study.MaskRef;
 import org.accordia.study.CaseLoader;
 import org.accordia.study.CaseReader;
@@ -56,6 +57,11 @@ public interface CaseSource {
     /** Every input file (for checksums), sorted; empty for generated cases. */
     default List<Path> inputFiles() {
         return List.of();
+    }
+
+    /** The file named by a study-level error (the manifest or the study folder); by default the first input. */
+    default Path where() {
+        return inputFiles().isEmpty() ? null : inputFiles().get(0);
     }
 
     /** A source over any loader; {@code images} may be null. */
@@ -121,6 +127,11 @@ public interface CaseSource {
             @Override
             public List<Path> inputFiles() {
                 return sorted;
+            }
+
+            @Override
+            public Path where() {
+                return Analysability.where(study);
             }
         };
     }

@@ -7,7 +7,8 @@ package org.accordia.analysis;
  * @param caseId the case
  * @param label the structure's name, or empty when the event concerns the whole case
  * @param reader "centre/reader", or empty when the event concerns a pair or the case
- * @param kind {@value #MISSING_MASK}, {@value #EMPTY_MASK}, {@value #UNDEFINED_DISTANCES}
+ * @param kind {@value #MISSING_MASK}, {@value #EMPTY_MASK}, {@value #UNDEFINED_DISTANCES}, or in the
+ *     outputs {@value #ABSENT}
  * @param detail the event in words
  */
 public record FlaggedEvent(String caseId, String label, String reader, String kind, String detail)
@@ -18,6 +19,12 @@ public record FlaggedEvent(String caseId, String label, String reader, String ki
     public static final String EMPTY_MASK = "empty_mask";
     /** Reader pairs whose surface distances are undefined (one or both masks empty). */
     public static final String UNDEFINED_DISTANCES = "undefined_distances";
+    /**
+     * No reader of the case drew the structure (every mask empty): one event per case and structure
+     * in the outputs, in place of that case's per-reader {@value #EMPTY_MASK} and its
+     * {@value #UNDEFINED_DISTANCES} events (see {@code report.Absence}).
+     */
+    public static final String ABSENT = "absent";
 
     private static final java.util.Comparator<FlaggedEvent> ORDER = java.util.Comparator
         .comparing(FlaggedEvent::caseId).thenComparing(FlaggedEvent::label).thenComparing(FlaggedEvent::kind)

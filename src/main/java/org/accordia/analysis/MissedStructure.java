@@ -5,7 +5,7 @@ import java.util.List;
 /**
  * A reader who overlooks a whole part of the structure (for example a small second lesion): in
  * each listed case, at least one component of the majority-vote consensus that the reader does
- * not touch at all ({@link MissedComponents}).
+ * not touch at all ({@link org.accordia.consensus.MissedComponents}).
  *
  * @param reader reader name
  * @param centre the reader's centre

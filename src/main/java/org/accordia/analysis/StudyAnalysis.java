@@ -3,7 +3,6 @@ package org.accordia.analysis;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.Comparator;
 import java.util.HashMap;
 import java.util.LinkedHashMap;
@@ -14,24 +13,14 @@ import java.util.SortedSet;
 import java.util.TreeMap;
 import java.util.TreeSet;
 import java.util.concurrent.ExecutionException;
-import java.util.concurrent.ExecutorService;
-import java.util.concurrent.Executors;
 import java.util.concurrent.ForkJoinPool;
-import java.util.concurrent.Future;
-import java.util.concurrent.Semaphore;
-import java.util.concurrent.atomic.AtomicReference;
 import java.util.stream.IntStream;
 import org.accordia.agreement.CaseAgreement;
 import org.accordia.agreement.CaseAgreementEngine;
 import org.accordia.agreement.PairMetrics;
-import org.accordia.agreement.PatternHistogram;
 import org.accordia.consensus.CaseReferences;
-import org.accordia.consensus.LabelTupleHistogram;
-import org.accordia.consensus.MultiLabelStaple;
-import org.accordia.consensus.MultiLabelStapleResult;
 import org.accordia.consensus.ReaderPerformance;
 import org.accordia.consensus.ReaderSummary;
-import org.accordia.consensus.StapleOptions;
 import org.accordia.consensus.UndecidedLabel;
 import org.accordia.io.InputException;
 import org.accordia.io.LabelVolume;
@@ -47,11 +36,14 @@ import org.accordia.shift.ReaderCaseMeasure;
 import org.accordia.shift.ReaderMeasure;
 import org.accordia.shift.ShiftAnalysis;
 import org.accordia.shift.ShiftSettings;
+import org.accordia.stats.Quantiles;
+import org.accordia.study.Analysability;
 import org.accordia.study.CaseReader;
 import org.accordia.study.LoadedCase;
 import org.accordia.study.Protocol;
 import org.accordia.study.ReaderId;
 import org.accordia.study.Structure;
+import org.accordia.study.StudyProblem;
 
 /**
  * One study from its cases to its decision: the library pipeline behind {@code accordia analyze},
@@ -64,6 +56,9 @@ import org.accordia.study.Structure;
  * StudyResult r = StudyAnalysis.run(source, protocol, AnalysisOptions.defaults().withThreads(2));
  * r.labels().get(0).summary().verdict();   // pool, review or re-annotate
  * }</pre>
+ *
+ * <p>The flow: {@link #plan} (once) → {@link CaseAnalysis#analyse} per case over a
+ * {@link CaseExecutor} (the bounded local pool) → {@link #studyLevel} over the records.
  *
  * <p>Per case (in parallel, at most {@code threads} cases in memory): agreement per structure
  * ({@link CaseAgreementEngine}); the STAPLE references all / others / other_centres with signed
@@ -85,22 +80,9 @@ public final class StudyAnalysis {
     private StudyAnalysis() {
     }
 
-    /**
-     * The shift settings a protocol implies. Resampling sizes follow the protocol's
-     * {@code consensus.bootstrap_resamples} (B, default 2000): B case-bootstrap resamples for the
-     * centre and reader effects, and B/10 (at most the documented defaults 200 and 199) parametric
-     * bootstrap resamples for the variance-component intervals and the test of σ²_centre = 0.
-     */
+    /** The shift settings a protocol implies ({@link AnalysisSettings#shiftSettings}). */
     public static ShiftSettings shiftSettings(Protocol p) {
-        Protocol.Shift s = p.shift();
-        Protocol.Review r = p.review();
-        return new ShiftSettings(s.alpha(), s.minimumShiftMm(), s.minimumVolumeShiftPercent(), r.adjudicationDice(),
-            r.adjudicationHd95Mm(), r.adjudicationShareForReview(), r.recalibrationToleranceMm(),
-            r.recalibrationVolumePercent(), s.permutations(), ShiftSettings.DEFAULT_EXACT_LIMIT,
-            p.consensus().bootstrapResamples(),
-            Math.min(ShiftSettings.DEFAULT_VARIANCE_RESAMPLES, p.consensus().bootstrapResamples() / 10),
-            Math.min(ShiftSettings.DEFAULT_CENTRE_TEST_RESAMPLES, p.consensus().bootstrapResamples() / 10 - 1),
-            p.seed());
+        return AnalysisSettings.shiftSettings(p);
     }
 
     /** As {@link #run(CaseSource, Protocol, AnalysisOptions, CaseSink, Runnable)} without a sink. */
@@ -125,95 +107,88 @@ public final class StudyAnalysis {
      */
     public static StudyResult run(CaseSource source, Protocol protocol, AnalysisOptions options, CaseSink sink,
             Runnable caseDone) throws InputException, IOException {
+        CaseExecutor executor = CaseExecutor.local(options.threads());
+        CasePlan plan = plan(source, protocol, options, executor);
         List<String> caseIds = source.caseIds();
-        if (caseIds.isEmpty()) {
+        CaseRecord[] records = new CaseRecord[caseIds.size()];
+        executor.forEachCase(caseIds.size(), i -> {
+            String id = caseIds.get(i);
+            LoadedCase lc = source.load(id);
+            records[i] = CaseAnalysis.analyse(lc, plan, sink, () -> source.image(id, lc.geometry()));
+            caseDone.run();
+        });
+        return studyLevel(plan, protocol, List.of(records), source.missing(), options, source.where());
+    }
+
+    /**
+     * The case plan of a study, computed once: the structures (the protocol's, or one per label
+     * value present, which costs one read of every case), whether a multi-label consensus is made
+     * and its undecided value, and every step's settings.
+     *
+     * @throws InputException a case cannot be read, or no mask holds any foreground label
+     */
+    public static CasePlan plan(CaseSource source, Protocol protocol, AnalysisOptions options, CaseExecutor executor)
+            throws InputException, IOException {
+        if (source.caseIds().isEmpty()) {
             throw new IllegalArgumentException("the study has no case");
         }
         SortedSet<Integer> labelValues = protocol.hasExplicitStructures() ? allLabels(protocol.structures())
-            : scanLabels(source, options.threads());
+            : scanLabels(source, executor);
         List<Structure> structures = protocol.structuresFor(labelValues);
         if (structures.isEmpty()) {
-            throw new InputException(source.inputFiles().isEmpty() ? null : source.inputFiles().get(0),
-                "no mask holds any foreground label, so there is no structure to analyse");
+            refuse(Analysability.noStructureVoxels(structures, s -> false, source.where()));
         }
         boolean multiLabel = labelValues.size() > 1;
         int undecided = multiLabel ? UndecidedLabel.defaultFor(labelValues.stream().mapToInt(Integer::intValue).toArray())
             : -1;
-        Protocol.ConsensusRegion region = protocol.consensus().region();
-        StapleOptions staple = StapleOptions.defaults().withRegion(regionWords(region));
-        CaseRecord[] records = new CaseRecord[caseIds.size()];
-        forEachCase(caseIds, options.threads(), i -> {
-            LoadedCase lc = source.load(caseIds.get(i));
-            records[i] = analyseCase(lc, structures, multiLabel, undecided, staple, region, sink);
-            caseDone.run();
-        });
-        ShiftSettings settings = options.shiftSettings() != null ? options.shiftSettings() : shiftSettings(protocol);
-        List<CaseRecord> cases = List.of(records);
+        AnalysisSettings all = options.shiftSettings() != null
+            ? AnalysisSettings.from(protocol).withShiftSettings(options.shiftSettings()) : AnalysisSettings.from(protocol);
+        return new CasePlan(structures, multiLabel, undecided, all);
+    }
+
+    /**
+     * The study level as a function of the per-case records: the analysability rule on what the
+     * cases hold, then per structure the shift analysis, reader summaries and missed parts, and
+     * the flagged events.
+     *
+     * @param plan the plan the records were made with
+     * @param protocol the protocol (its study name is carried into the result)
+     * @param records one record per case, in case order
+     * @param missing (case, reader) pairs without a mask
+     * @param where the file named when no mask holds a voxel of any structure
+     * @throws InputException no mask holds a voxel of any structure analysed
+     */
+    public static StudyResult studyLevel(CasePlan plan, Protocol protocol, List<CaseRecord> records,
+            List<CaseReader> missing, AnalysisOptions options, java.nio.file.Path where) throws InputException {
+        List<Structure> structures = plan.structures();
+        AnalysisSettings all = plan.settings();
+        List<CaseRecord> cases = List.copyOf(records);
+        // the analysability rule on what the cases hold: no voxel of any structure in any mask stops the run
+        refuse(Analysability.noStructureVoxels(structures, st -> cases.stream().anyMatch(c -> c.structures().stream()
+            .anyMatch(sc -> sc.structure().equals(st) && sc.agreement().voxelCounts().stream().anyMatch(n -> n > 0))),
+            where));
+        ShiftSettings settings = all.shift().settings();
         TreeSet<ReaderId> readers = new TreeSet<>();
         cases.forEach(c -> readers.addAll(c.readers()));
         Map<ReaderId, String> keys = readerKeys(readers);
         // structures are independent at the study level: one task each, results in protocol order
         LabelResult[] labels = new LabelResult[structures.size()];
         inStudyPool(options.threads(), structures.size(), s -> labels[s] = studyLevel(s, structures.get(s), cases,
-            readers, keys, protocol, settings, options.readerSummaries()));
+            readers, keys, all, options.readerSummaries()));
         TreeSet<String> centres = new TreeSet<>();
         readers.forEach(r -> centres.add(r.centre()));
-        return new StudyResult(protocol.withSeed(settings.seed()), settings, structures, List.copyOf(readers),
-            List.copyOf(centres), cases, List.of(labels), events(cases, source.missing()),
-            staple.region(), undecided);
+        return new StudyResult(protocol.withSeed(settings.seed()), all, structures, List.copyOf(readers),
+            List.copyOf(centres), cases, List.of(labels), events(cases, missing),
+            all.consensus().staple().region(), plan.undecidedValue());
+    }
+
+    private static void refuse(StudyProblem p) throws InputException {
+        if (p != null) {
+            throw new InputException(p.file(), p.message());
+        }
     }
 
     // ------------------------------------------------------------------ per case
-
-    @FunctionalInterface
-    private interface CaseTask {
-        void run(int index) throws InputException, IOException;
-    }
-
-    /**
-     * Runs {@code task} for every case (or structure) over a pool of {@code threads} workers; a case is only
-     * started when fewer than {@code threads} cases are in flight (semaphore), so at most that
-     * many cases are in memory. The first failure stops new cases and is rethrown.
-     */
-    private static void forEachCase(List<String> caseIds, int threads, CaseTask task) throws InputException, IOException {
-        int workers = Math.max(1, Math.min(threads, caseIds.size()));
-        ExecutorService pool = Executors.newFixedThreadPool(workers, r -> {
-            Thread t = new Thread(r, "accordia-analyze");
-            t.setDaemon(true);
-            return t;
-        });
-        Semaphore inFlight = new Semaphore(workers);
-        AtomicReference<Throwable> failure = new AtomicReference<>();
-        List<Future<?>> futures = new ArrayList<>();
-        try {
-            for (int i = 0; i < caseIds.size() && failure.get() == null; i++) {
-                inFlight.acquire();
-                int index = i;
-                futures.add(pool.submit(() -> {
-                    try {
-                        if (failure.get() == null) {
-                            task.run(index);
-                        }
-                    } catch (Throwable t) {
-                        failure.compareAndSet(null, t);
-                    } finally {
-                        inFlight.release();
-                    }
-                }));
-            }
-            for (Future<?> f : futures) {
-                f.get();
-            }
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new IllegalStateException("analysis interrupted", e);
-        } catch (ExecutionException e) {
-            failure.compareAndSet(null, e.getCause());
-        } finally {
-            pool.shutdownNow();
-        }
-        Failures.rethrow(failure.get());
-    }
 
     /**
      * Runs {@code task} for 0 ≤ s &lt; count as a parallel stream inside a fork-join pool of
@@ -243,11 +218,12 @@ public final class StudyAnalysis {
     }
 
     /** Label values (≥ 1) present in any mask; one extra read of every case. */
-    private static SortedSet<Integer> scanLabels(CaseSource source, int threads) throws InputException, IOException {
+    private static SortedSet<Integer> scanLabels(CaseSource source, CaseExecutor executor)
+            throws InputException, IOException {
         List<String> ids = source.caseIds();
         @SuppressWarnings("unchecked")
         java.util.Set<Integer>[] seen = new java.util.Set[ids.size()];
-        forEachCase(ids, threads, i -> {
+        executor.forEachCase(ids.size(), i -> {
             TreeSet<Integer> s = new TreeSet<>();
             for (LabelVolume v : source.load(ids.get(i)).masks()) {
                 v.labelCounts().forEach((k, n) -> {
@@ -263,130 +239,6 @@ public final class StudyAnalysis {
             out.addAll(s);
         }
         return out;
-    }
-
-    /** One case: agreement, consensus, sink, record. Package-private for tests. */
-    static CaseRecord analyseCase(LoadedCase lc, List<Structure> structures, boolean multiLabel, int undecided,
-            StapleOptions staple, Protocol.ConsensusRegion region, CaseSink sink) throws IOException {
-        List<ReaderId> readers = lc.readers();
-        List<LabelVolume> masks = lc.masks();
-        List<String> names = readers.stream().map(ReaderId::reader).toList();
-        List<String> centres = readers.stream().map(ReaderId::centre).toList();
-        double tolerance = structures.stream().mapToDouble(Structure::toleranceMm).min().orElse(Structure.DEFAULT_TOLERANCE_MM);
-        List<CaseAgreement> agreements = new ArrayList<>();
-        // one engine pass per distinct tolerance (usually one or two)
-        Map<Double, List<Integer>> byTolerance = new TreeMap<>();
-        for (int s = 0; s < structures.size(); s++) {
-            byTolerance.computeIfAbsent(structures.get(s).toleranceMm(), k -> new ArrayList<>()).add(s);
-        }
-        CaseAgreement[] bySlot = new CaseAgreement[structures.size()];
-        for (var e : byTolerance.entrySet()) {
-            List<Structure> group = e.getValue().stream().map(structures::get).toList();
-            List<CaseAgreement> got = new CaseAgreementEngine(e.getKey(), e.getKey(), null)
-                .evaluate(lc.caseId(), readers, masks, group);
-            for (int k = 0; k < got.size(); k++) {
-                bySlot[e.getValue().get(k)] = got.get(k);
-            }
-        }
-        agreements.addAll(Arrays.asList(bySlot));
-        List<StructureCase> out = new ArrayList<>();
-        List<CaseReferences> refs = new ArrayList<>();
-        double worstMedian = Double.POSITIVE_INFINITY;
-        for (int s = 0; s < structures.size(); s++) {
-            Structure st = structures.get(s);
-            CaseAgreement ca = agreements.get(s);
-            PatternHistogram h = region == Protocol.ConsensusRegion.UNION_MARGIN ? unionMargin(ca) : ca.histogram();
-            CaseReferences r = CaseReferences.compute(lc.caseId(), st.name(), names, centres, h,
-                ca.voxelVolumeMl(), staple);
-            List<ReaderPerformance> rows = r.rowsWithSurfaces(masks, st.labels().stream().mapToInt(Integer::intValue).toArray(),
-                ca.unionBox(), st.toleranceMm());
-            double maxHd95 = Double.NaN;
-            for (PairMetrics p : ca.pairs()) {
-                if (p.hasDistances() && !(p.hd95Mm() <= maxHd95)) {
-                    maxHd95 = p.hd95Mm();
-                }
-            }
-            double voxelMm3 = ca.voxelVolumeMl() * 1000;
-            int minVoxels = (int) Math.max(1, Math.ceil(4.0 / 3 * Math.PI * Math.pow(st.toleranceMm(), 3) / voxelMm3));
-            long[][] missed = MissedComponents.find(masks, st, ca.unionBox(), minVoxels);
-            List<Integer> parts = new ArrayList<>();
-            List<Double> partsMl = new ArrayList<>();
-            for (long[] m : missed) {
-                parts.add((int) m[0]);
-                partsMl.add(m[1] * ca.voxelVolumeMl());
-            }
-            out.add(new StructureCase(st, ca, rows, maxHd95, parts, partsMl));
-            refs.add(r);
-            if (!Double.isNaN(ca.medianDice())) {
-                worstMedian = Math.min(worstMedian, ca.medianDice());
-            }
-        }
-        List<ReaderId> empty = new ArrayList<>();
-        for (int j = 0; j < masks.size(); j++) {
-            if (masks.get(j).maxLabel() == 0) {
-                empty.add(readers.get(j));
-            }
-        }
-        MultiLabelStapleResult ml = null;
-        long undecidedVoxels = -1;
-        if (multiLabel) {
-            ml = MultiLabelStaple.run(LabelTupleHistogram.build(masks), staple, undecided);
-            undecidedVoxels = ml.consensusCounts().getOrDefault(undecided, 0L);
-        }
-        double score = worstMedian == Double.POSITIVE_INFINITY ? Double.NaN : 1 - worstMedian;
-        List<java.util.SortedMap<Integer, Long>> labelCounts = new ArrayList<>();
-        for (LabelVolume v : masks) {
-            TreeMap<Integer, Long> counts = new TreeMap<>();
-            v.labelCounts().forEach((k, n) -> {
-                if (k >= 1 && n > 0) {
-                    counts.put(k, n);
-                }
-            });
-            labelCounts.add(counts);
-        }
-        CaseRecord record = new CaseRecord(lc.caseId(), readers, empty, out, score, undecidedVoxels, labelCounts);
-        sink.accept(new CaseSink.CaseWork(lc, refs, ml, undecided, record));
-        return record;
-    }
-
-    /** The STAPLE region in words (reported with every specificity). */
-    static String regionWords(Protocol.ConsensusRegion region) {
-        return region == Protocol.ConsensusRegion.UNION_MARGIN
-            ? "union of all readers' structure grown by the structure's tolerance"
-            : StapleOptions.WHOLE_GRID;
-    }
-
-    /**
-     * The histogram restricted to the union of all readers' structure grown by the structure's
-     * tolerance (the kappa region of the agreement step): every voxel outside the union has
-     * pattern 0, so only the count of pattern 0 changes, to the region's voxels outside the union.
-     */
-    static PatternHistogram unionMargin(CaseAgreement ca) {
-        PatternHistogram h = ca.histogram();
-        long union = 0;
-        for (int i = 0; i < h.size(); i++) {
-            if (h.pattern(i) != 0) {
-                union += h.count(i);
-            }
-        }
-        long background = Math.max(0, ca.kappaRegionVoxels() - union);
-        List<Long> p = new ArrayList<>();
-        List<Long> c = new ArrayList<>();
-        if (background > 0) {
-            p.add(0L);
-            c.add(background);
-        }
-        for (int i = 0; i < h.size(); i++) {
-            if (h.pattern(i) != 0) {
-                p.add(h.pattern(i));
-                c.add(h.count(i));
-            }
-        }
-        if (p.isEmpty()) {
-            return h; // every mask empty: keep the whole grid
-        }
-        return new PatternHistogram(h.readers(), p.stream().mapToLong(Long::longValue).toArray(),
-            c.stream().mapToLong(Long::longValue).toArray());
     }
 
     // ------------------------------------------------------------------ study level
@@ -406,7 +258,9 @@ public final class StudyAnalysis {
     }
 
     private static LabelResult studyLevel(int s, Structure st, List<CaseRecord> cases, TreeSet<ReaderId> readers,
-            Map<ReaderId, String> keys, Protocol protocol, ShiftSettings settings, boolean summaries) {
+            Map<ReaderId, String> keys, AnalysisSettings all, boolean summaries) {
+        ShiftSettings settings = all.shift().settings();
+        Protocol.ShiftDistance distance = all.shift().distance();
         Map<String, String> readerCentre = new TreeMap<>();
         keys.forEach((r, k) -> readerCentre.put(k, r.centre()));
         List<CaseDistances> distances = new ArrayList<>();
@@ -422,7 +276,7 @@ public final class StudyAnalysis {
             StructureCase sc = c.structures().get(s);
             CaseAgreement ca = sc.agreement();
             List<String> caseKeys = c.readers().stream().map(keys::get).toList();
-            distances.add(new CaseDistances(c.caseId(), caseKeys, distanceMatrix(ca, protocol.shift().distance())));
+            distances.add(new CaseDistances(c.caseId(), caseKeys, distanceMatrix(ca, distance)));
             for (int j = 0; j < c.readers().size(); j++) {
                 ReaderId r = c.readers().get(j);
                 for (ReaderPerformance p : sc.performance()) {
@@ -450,10 +304,12 @@ public final class StudyAnalysis {
             if (c.readers().size() == readers.size()) {
                 volumeRows.add(ca.volumesMl().stream().mapToDouble(Double::doubleValue).toArray());
             }
-            allRows.addAll(sc.performance());
+            if (!sc.absent()) { // a case where no reader drew the structure says nothing about a reader
+                allRows.addAll(sc.performance());
+            }
         }
         double[][] volumes = volumeRows.size() >= 2 && readers.size() >= 2 ? volumeRows.toArray(new double[0][]) : null;
-        LabelShiftInput input = new LabelShiftInput(s + 1, st.name(), distanceName(protocol.shift().distance()),
+        LabelShiftInput input = new LabelShiftInput(s + 1, st.name(), distanceName(distance),
             readerCentre, distances, centreMeasures, readerMeasures, commonMeasures,
             "signed surface distance against the consensus of all readers (mm)", variance, summaries2, volumes,
             maskLabels);
@@ -461,7 +317,7 @@ public final class StudyAnalysis {
         List<String> notes = new ArrayList<>();
         LabelShiftSummary summary = orderFlagged(report, notes, settings);
         List<ReaderSummary> rs = summaries
-            ? ReaderSummary.summarise(allRows, protocol.consensus().bootstrapResamples(), settings.seed() + 7919L * (s + 1))
+            ? ReaderSummary.summarise(allRows, all.consensus().bootstrapResamples(), settings.seed() + 7919L * (s + 1))
             : List.of();
         return new LabelResult(s + 1, st, input, report, summary, notes, rs, missedStructure(cases, s));
     }
@@ -594,7 +450,10 @@ public final class StudyAnalysis {
      * those cases and the median of the other readers' sensitivities there.
      */
     static List<MissedStructure> missedStructure(List<CaseRecord> cases, int s) {
-        Map<ReaderId, List<Object[]>> low = new TreeMap<>();
+        /** One case in which a reader leaves out a part. */
+        record Miss(String caseId, int parts, double partsMl, double sensitivity, double othersMedian) {
+        }
+        Map<ReaderId, List<Miss>> low = new TreeMap<>();
         for (CaseRecord c : cases) {
             StructureCase sc = c.structures().get(s);
             List<ReaderPerformance> rows = sc.rows(ReaderPerformance.REFERENCE_OTHERS);
@@ -613,29 +472,20 @@ public final class StudyAnalysis {
                     }
                 }
                 low.computeIfAbsent(c.readers().get(j), x -> new ArrayList<>())
-                    .add(new Object[] {c.caseId(), sc.missedParts().get(j), sc.missedPartsMl().get(j), sens,
-                        median(others)});
+                    .add(new Miss(c.caseId(), sc.missedParts().get(j), sc.missedPartsMl().get(j), sens, Quantiles.median(others)));
             }
         }
         List<MissedStructure> out = new ArrayList<>();
         for (var e : low.entrySet()) {
-            List<Object[]> v = e.getValue();
+            List<Miss> v = e.getValue();
             out.add(new MissedStructure(e.getKey().reader(), e.getKey().centre(),
-                v.stream().map(o -> (String) o[0]).toList(), v.stream().map(o -> (Integer) o[1]).toList(),
-                v.stream().map(o -> (Double) o[2]).toList(), v.stream().map(o -> (Double) o[3]).toList(),
-                v.stream().map(o -> (Double) o[4]).toList()));
+                v.stream().map(Miss::caseId).toList(), v.stream().map(Miss::parts).toList(),
+                v.stream().map(Miss::partsMl).toList(), v.stream().map(Miss::sensitivity).toList(),
+                v.stream().map(Miss::othersMedian).toList()));
         }
         // most cases first, then by reader order
         out.sort(Comparator.comparingInt((MissedStructure m) -> -m.cases().size()));
         return out;
-    }
-
-    private static double median(double[] v) {
-        double[] x = Arrays.stream(v).filter(d -> !Double.isNaN(d)).sorted().toArray();
-        if (x.length == 0) {
-            return Double.NaN;
-        }
-        return x.length % 2 == 1 ? x[x.length / 2] : (x[x.length / 2 - 1] + x[x.length / 2]) / 2;
     }
 
     private static List<FlaggedEvent> events(List<CaseRecord> cases, List<CaseReader> missing) {

@@ -11,7 +11,7 @@ import org.accordia.study.Structure;
  * Everything a study's analysis produced, voxel-free; sorted by case, structure and reader.
  *
  * @param protocol the protocol used (with the seed actually used)
- * @param shiftSettings the shift analysis settings used
+ * @param settings every step's settings as used (resolved once from the protocol)
  * @param structures the structures analysed, protocol order
  * @param readers every reader seen, sorted by centre then name
  * @param centres every centre seen, sorted
@@ -22,7 +22,7 @@ import org.accordia.study.Structure;
  * @param multiLabelUndecided the value of undecided voxels in the multi-label consensus masks, or
  *     −1 when no multi-label consensus was made
  */
-public record StudyResult(Protocol protocol, ShiftSettings shiftSettings, List<Structure> structures,
+public record StudyResult(Protocol protocol, AnalysisSettings settings, List<Structure> structures,
                           List<ReaderId> readers, List<String> centres, List<CaseRecord> cases,
                           List<LabelResult> labels, List<FlaggedEvent> events, String stapleRegion,
                           int multiLabelUndecided) {
@@ -33,6 +33,11 @@ public record StudyResult(Protocol protocol, ShiftSettings shiftSettings, List<S
         cases = List.copyOf(cases);
         labels = List.copyOf(labels);
         events = List.copyOf(events);
+    }
+
+    /** The shift analysis settings used. */
+    public ShiftSettings shiftSettings() {
+        return settings.shift().settings();
     }
 
     /** The most severe verdict over the labels (pool when there is no label). */

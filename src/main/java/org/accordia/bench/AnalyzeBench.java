@@ -9,9 +9,7 @@ import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
-import org.accordia.analysis.AnalysisOptions;
 import org.accordia.analysis.CaseSource;
-import org.accordia.analysis.InputChecksums;
 import org.accordia.analysis.StudyAnalysis;
 import org.accordia.analysis.StudyResult;
 import org.accordia.io.InputException;
@@ -19,7 +17,7 @@ import org.accordia.io.ReadLimits;
 import org.accordia.io.Volumes;
 import org.accordia.report.AnalysisReport;
 import org.accordia.report.ConsensusFiles;
-import org.accordia.report.OutputFolder;
+import org.accordia.run.StudyRun;
 import org.accordia.study.MaskRef;
 import org.accordia.study.Protocol;
 import org.accordia.study.Study;
@@ -99,21 +97,14 @@ public final class AnalyzeBench {
     }
 
     /**
-     * One end-to-end analysis of the study with its outputs written into {@code outDir}, as
-     * {@code accordia analyze} does it: input checksums, the pipeline with the consensus files
-     * written per case ({@link ConsensusFiles}), then the report ({@link AnalysisReport#write}).
+     * One end-to-end analysis of the study with its outputs written into {@code outDir}, through
+     * the run entry point of {@code accordia analyze} ({@link StudyRun#analyze}): input checksums,
+     * the pipeline with the consensus files written per case, then the report.
      */
     public static StudyResult analyzeOnce(Study study, Protocol protocol, int threads, Path outDir)
         throws InputException, IOException {
-        CaseSource source = CaseSource.ofStudy(study, protocol, false);
-        List<InputChecksums.InputFile> checksums = InputChecksums.of(source.inputFiles(), study.root());
-        OutputFolder folder = OutputFolder.prepare(outDir, true);
-        ConsensusFiles consensus = new ConsensusFiles(folder, AnalysisReport.PICTURES);
-        StudyResult r = StudyAnalysis.run(source, protocol, AnalysisOptions.defaults().withThreads(threads), consensus,
-            () -> { });
-        AnalysisReport.write(folder, r, consensus.pictures(), source,
-            new AnalysisReport.RunInfo("benchmark", checksums, "benchmark protocol (demo structures)"), threads);
-        return r;
+        return StudyRun.analyze(StudyRun.prepare(study, protocol, false), outDir, true, threads, "benchmark",
+            StudyRun.Listener.NONE).result();
     }
 
     /** Reads every mask of the study, cases spread over {@code threads} workers; returns the voxel total. */

@@ -185,6 +185,15 @@ public final class Calibration {
 
     /** Runs every scenario of the settings, one scenario after the other (each timed). */
     public static Result run(Settings s, StudyRunner runner) throws Exception {
+        return run(s, runner, r -> { });
+    }
+
+    /**
+     * As {@link #run(Settings, StudyRunner)}, handing each scenario's result to {@code done} as soon
+     * as its runs are finished (for progress output).
+     */
+    public static Result run(Settings s, StudyRunner runner, java.util.function.Consumer<ScenarioResult> done)
+            throws Exception {
         ExecutorService pool = Executors.newFixedThreadPool(s.threads(), CaseBench.daemon("accordia-calibrate"));
         try {
             List<ScenarioResult> out = new ArrayList<>();
@@ -196,7 +205,9 @@ public final class Calibration {
                     fs.add(pool.submit(() -> attempt(sc, k, s, runner)));
                 }
                 List<Run> runs = collect(fs);
-                out.add(judge(sc, runs, s, (System.nanoTime() - t0) / 1e9));
+                ScenarioResult r = judge(sc, runs, s, (System.nanoTime() - t0) / 1e9);
+                out.add(r);
+                done.accept(r);
             }
             return new Result(s, out);
         } finally {

@@ -201,7 +201,7 @@ public final class CaseBench {
 
     /** Largest extent (mm) of the union box of the first structure: a measure of lesion size. */
     static double extentMm(CaseAgreement a, Geometry g) {
-        if (a.unionBox().equals(org.accordia.agreement.Borders.Box.EMPTY)) {
+        if (a.unionBox().equals(org.accordia.grid.Box.EMPTY)) {
             return 0;
         }
         double[] sp = g.spacingMm();

@@ -20,12 +20,6 @@ public final class Medians {
 
     /** Median of the samples; NaN when there are none. Does not modify the input. */
     public static double of(double[] samples) {
-        if (samples.length == 0) {
-            return Double.NaN;
-        }
-        double[] s = samples.clone();
-        Arrays.sort(s);
-        int n = s.length;
-        return n % 2 == 1 ? s[n / 2] : (s[n / 2 - 1] + s[n / 2]) / 2;
+        return org.accordia.stats.Quantiles.median(samples);
     }
 }

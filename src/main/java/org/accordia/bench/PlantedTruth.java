@@ -21,8 +21,9 @@ import org.accordia.demo.DemoSpec;
  * double, double)}. A centre without a plant has μ_c = 0 exactly (identical masks). One wide reader
  * is an individual deviation, not a centre's: it leaves μ of its centre at 0.
  *
- * <p>On the calibration grids a +1.5 mm margin measures about +1.35 mm: the border voxels of the
- * grown shape lie on the voxel lattice, and distances are taken between voxel centres.
+ * <p>On the calibration grid (64 × 64 × 32 at 1 × 1 × 2 mm) a +1.5 mm margin measures about
+ * +1.45 mm and −1.5 mm about −1.24 mm: the border voxels lie on the voxel lattice, and distances
+ * are taken between voxel centres.
  */
 public final class PlantedTruth {
     private PlantedTruth() {
@@ -50,14 +51,21 @@ public final class PlantedTruth {
      * ({@link DemoGenerator.InMemory#plantedShape}) against the unplanted truth shape.
      */
     public static double meanOverCasesMm(DemoGenerator.InMemory study, double marginMm, boolean inclusion) {
-        DemoSpec s = study.spec();
         double sum = 0;
         for (String caseId : study.caseIds()) {
-            boolean[] planted = study.plantedShape(caseId, marginMm, inclusion);
-            boolean[] truth = study.plantedShape(caseId, 0, false);
-            sum += SignedSurface.meanSignedMm(planted, truth, s.nx(), s.ny(), s.nz(), s.sxMm(), s.syMm(), s.szMm());
+            sum += signedMm(study.plantedShape(caseId, marginMm, inclusion), study.plantedShape(caseId, 0, false),
+                study.spec());
         }
         return sum / study.caseIds().size();
+    }
+
+    /**
+     * Mean signed surface distance (mm, positive = outside) of the border of {@code planted} to the
+     * border of {@code truth}, full masks on the spec's grid ({@link SignedSurface}'s plain definition).
+     */
+    static double signedMm(boolean[] planted, boolean[] truth, DemoSpec grid) {
+        return SignedSurface.meanSignedMm(planted, truth, grid.nx(), grid.ny(), grid.nz(), grid.sxMm(), grid.syMm(),
+            grid.szMm());
     }
 
     /** Δ_c = μ_c − mean over the other centres d of μ_d, in the order of {@code mu}; NaN with one centre. */

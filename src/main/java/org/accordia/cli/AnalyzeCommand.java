@@ -6,25 +6,17 @@ import java.io.OutputStream;
 import java.io.PrintStream;
 import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
-import org.accordia.analysis.AnalysisOptions;
-import org.accordia.analysis.CaseSource;
-import org.accordia.analysis.InputChecksums;
 import org.accordia.analysis.LabelResult;
-import org.accordia.analysis.StudyAnalysis;
 import org.accordia.analysis.StudyResult;
-import org.accordia.io.InputException;
 import org.accordia.report.AnalysisReport;
-import org.accordia.report.ConsensusFiles;
 import org.accordia.report.OutputFolder;
+import org.accordia.run.PreparedStudy;
+import org.accordia.run.StudyRun;
 import org.accordia.shift.Verdict;
 import org.accordia.study.Protocol;
-import org.accordia.study.Study;
-import org.accordia.study.StudyLoader;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -36,11 +28,12 @@ import picocli.CommandLine.Parameters;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
-        "Analyses a study: agreement of every reader pair, STAPLE consensus with each reader's",
-        "performance, the split of disagreement within and between centres with a permutation test,",
-        "and a decision per structure (pool / review / re-annotate). Writes report.html, pairs.csv,",
-        "readers.csv, centres.csv, cases.csv, reader_summary.csv, events.csv, summary.json and the",
-        "consensus masks (consensus/) into the output folder (docs/outputs.md). Inputs are never written."
+        "Analyses a study and decides per structure: pool, review or re-annotate.",
+        "Measures the agreement of every reader pair, estimates the STAPLE consensus with each reader's "
+            + "performance, and splits the disagreement within and between centres with a permutation test.",
+        "Writes report.html, pairs.csv, readers.csv, centres.csv, cases.csv, reader_summary.csv, "
+            + "events.csv, summary.json and the consensus masks (consensus/) into the output folder "
+            + "(docs/outputs.md). Inputs are never written."
     },
     exitCodeListHeading = "%nExit codes:%n",
     exitCodeList = {
@@ -50,9 +43,6 @@ import picocli.CommandLine.Parameters;
         "3:--fail-on: a structure's verdict reached the named level"
     })
 public final class AnalyzeCommand implements Callable<Integer> {
-    /** The protocol file looked for in the study folder when --protocol is not given. */
-    public static final String STUDY_PROTOCOL = "protocol.yaml";
-
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
 
@@ -111,73 +101,39 @@ public final class AnalyzeCommand implements Callable<Integer> {
                     "--fail-on takes review or re-annotate, not '" + failOn + "'");
             };
         }
-        Study s = StudyLoader.load(study, read.loadOptions());
-        String protocolSource;
-        Protocol protocol;
-        Path inStudy = s.root().resolve(STUDY_PROTOCOL);
-        if (protocolFile != null) {
-            protocol = Protocol.load(protocolFile);
-            protocolSource = "the file given with --protocol (" + protocolFile.getFileName() + ")";
-        } else if (Files.isRegularFile(inStudy)) {
-            protocol = Protocol.load(inStudy);
-            protocolSource = STUDY_PROTOCOL + " in the study folder";
-        } else {
-            protocol = Protocol.defaults();
-            protocolSource = "built-in defaults (docs/protocol.md), one structure per label value present";
-        }
-        if (seed != null) {
-            protocol = protocol.withSeed(seed);
-        }
-        protocol = read.apply(protocol);
-        if (s.cases().isEmpty()) {
-            throw new InputException(study, "the study has no case");
-        }
-        StudyGate.requireAnalysable(s);
-        CaseSource source = CaseSource.ofStudy(s, protocol, read.allowOutsideRoot());
-        List<Path> inputs = new java.util.ArrayList<>(source.inputFiles());
-        if (protocolFile != null) {
-            inputs.add(protocolFile);
-        } else if (Files.isRegularFile(inStudy)) {
-            inputs.add(inStudy);
-        }
-        Path outAbs = out.toAbsolutePath().normalize();
-        for (Path p : inputs) {
-            if (p.toAbsolutePath().normalize().startsWith(outAbs)) {
-                throw new InputException(out, "the output folder holds input files (" + p.getFileName()
-                    + "); choose an output folder outside the study");
-            }
-        }
-        // checksums before anything is written: they name the bytes the report was made from
-        List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, s.root());
-        OutputFolder folder = OutputFolder.prepare(out, force);
+        PreparedStudy prepared = StudyRun.prepare(read.request(study, protocolFile).withSeed(seed));
+        StudyRun.requireAnalysable(prepared);
         PrintWriter err = spec.commandLine().getErr();
         long t0 = System.nanoTime();
-        StudyResult result;
-        try {
-            ConsensusFiles consensus = new ConsensusFiles(folder, AnalysisReport.PICTURES);
-            try (PrintStream progressStream = new PrintStream(new WriterStream(err), true, StandardCharsets.UTF_8);
-                 Progress progress = Progress.create(s.cases().size(), quiet, progressStream)) {
-                try {
-                    result = StudyAnalysis.run(source, protocol, AnalysisOptions.defaults().withThreads(threads), consensus,
-                        progress::step);
-                } catch (Exception | Error e) {
-                    progress.abandon(); // the error's one line is all a failed run prints
-                    throw e;
-                }
+        StudyRun.Outcome outcome;
+        try (PrintStream progressStream = new PrintStream(new WriterStream(err), true, StandardCharsets.UTF_8);
+             Progress progress = Progress.create(prepared.study().cases().size(), quiet, progressStream)) {
+            try {
+                outcome = StudyRun.analyze(prepared, out, force, threads, VersionProvider.version(),
+                    AnalysisReport.Run.commandLine("accordia", spec.commandLine().getParseResult().originalArgs()),
+                    new StudyRun.Listener() {
+                        @Override
+                        public void caseDone() {
+                            progress.step();
+                        }
+
+                        @Override
+                        public void casesDone() {
+                            progress.close();
+                        }
+                    });
+            } catch (Exception | Error e) {
+                progress.abandon(); // the error's one line is all a failed run prints
+                throw e;
             }
-            AnalysisReport.write(folder, result, consensus.pictures(), source,
-                new AnalysisReport.RunInfo(VersionProvider.version(), checksums, protocolSource), threads);
-        } catch (Exception | Error e) {
-            // stop at the first bad input and leave nothing of this run behind (no half set of outputs)
-            folder.discardThisRun();
-            throw e;
         }
         double seconds = (System.nanoTime() - t0) / 1e9;
+        StudyResult result = outcome.result();
         PrintWriter w = spec.commandLine().getOut();
         for (LabelResult l : result.labels()) {
             w.printf(Locale.ROOT, "%s: %s (%s)%n", l.name(), l.summary().verdict().word(), l.summary().rule());
         }
-        w.printf(Locale.ROOT, "Report: %s (%d cases in %.1f s)%n", folder.dir().resolve(OutputFolder.REPORT_HTML),
+        w.printf(Locale.ROOT, "Report: %s (%d cases in %.1f s)%n", outcome.folder().resolve(OutputFolder.REPORT_HTML),
             result.cases().size(), seconds);
         w.flush();
         if (failLevel != null && result.worstVerdict().ordinal() >= failLevel.ordinal()) {

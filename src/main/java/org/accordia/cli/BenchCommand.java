@@ -33,6 +33,7 @@ import picocli.CommandLine.Option;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
+        "Times the analysis steps as ratios to the time needed to read the masks.",
         "Measures the analysis steps on a generated study (cached in the work folder) and prints "
             + "each step's time as a ratio to the time the same JVM needs to read and inflate the masks, "
             + "with the targets. Medians over rounds after a warm-up; the machine and its load average "

@@ -18,9 +18,10 @@ import picocli.CommandLine.Option;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
-        "Writes a synthetic multi-centre study (invented scenario, no patient data): masks in the folder",
-        "layout <out>/<centre>/<reader>/<case>.nii.gz, a phantom image per case in <out>/images,",
-        "manifest.csv and demo-truth.json (what was planted where)."
+        "Writes a synthetic multi-centre study (invented scenario, no patient data).",
+        "Masks in the folder layout <out>/<centre>/<reader>/<case>.nii.gz, a phantom image per case in "
+            + "<out>/images, protocol.yaml (the study's structures and settings, read by analyze), "
+            + "manifest.csv and demo-truth.json (what was planted where)."
     })
 public final class DemoCommand implements Callable<Integer> {
 

@@ -13,14 +13,14 @@ import org.accordia.report.DecisionWords;
 import org.accordia.shift.DesignLimit;
 import org.accordia.shift.DesignLimits;
 import org.accordia.shift.ShiftSettings;
+import org.accordia.run.PreparedStudy;
+import org.accordia.run.ProtocolSource;
+import org.accordia.run.StudyRun;
 import org.accordia.study.CaseReader;
 import org.accordia.study.InspectionReport;
-import org.accordia.study.Inspector;
 import org.accordia.study.Protocol;
 import org.accordia.study.ReaderId;
 import org.accordia.study.Structure;
-import org.accordia.study.Study;
-import org.accordia.study.StudyLoader;
 import org.accordia.study.StudyProblem;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
@@ -33,10 +33,10 @@ import picocli.CommandLine.Parameters;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
-        "Checks a study without analysing it: lists centres, readers, cases, the labels seen, each",
-        "case's grid, the missing masks and every problem found. Exit 0 when the study can be",
-        "analysed, 2 when it cannot (no case, fewer than two readers, an unreadable mask, a grid",
-        "mismatch within a case). Nothing is written."
+        "Checks a study without analysing it; nothing is written.",
+        "Lists centres, readers, cases, the labels seen, each case's grid, the missing masks and every "
+            + "problem found. Exit 0 when the study can be analysed, 2 when it cannot (no case, fewer than "
+            + "two readers, an unreadable mask, a grid mismatch within a case)."
     },
     exitCodeListHeading = "%nExit codes:%n",
     exitCodeList = {
@@ -54,7 +54,8 @@ public final class InspectCommand implements Callable<Integer> {
     Path study;
 
     @Option(names = "--protocol", paramLabel = "FILE",
-        description = "Protocol file (YAML, see docs/protocol.md); default: built-in defaults, one structure per label seen.")
+        description = "Protocol file (YAML, docs/protocol.md). Default: <study>/protocol.yaml when present, "
+            + "else built-in defaults with one structure per label value present (as analyze).")
     Path protocolFile;
 
     @CommandLine.Mixin
@@ -70,13 +71,11 @@ public final class InspectCommand implements Callable<Integer> {
             throw new CommandLine.ParameterException(spec.commandLine(), "--threads must be at least 1");
         }
         read.check(spec.commandLine());
-        Protocol protocol = protocolFile == null ? Protocol.defaults() : Protocol.load(protocolFile);
-        protocol = read.apply(protocol);
-        Study s = StudyLoader.load(study, read.loadOptions());
-        InspectionReport report = Inspector.inspect(s, protocol, protocol.readLimits(read.allowOutsideRoot()), threads);
+        PreparedStudy prepared = StudyRun.prepare(read.request(study, protocolFile));
+        InspectionReport report = StudyRun.inspect(prepared, threads);
         PrintWriter out = spec.commandLine().getOut();
-        out.print(format(report));
-        out.print(designWarnings(report, protocol));
+        out.print(format(report, prepared.protocolSource()));
+        out.print(designWarnings(report, prepared.protocol()));
         out.flush();
         if (!report.analysable()) {
             PrintWriter err = spec.commandLine().getErr();
@@ -89,13 +88,14 @@ public final class InspectCommand implements Callable<Integer> {
     }
 
     /** The plain-text report (deterministic; one section per topic). */
-    static String format(InspectionReport r) {
+    static String format(InspectionReport r, ProtocolSource protocol) {
         StringBuilder b = new StringBuilder();
         if (r.studyName() != null) {
             b.append("Study: ").append(r.studyName()).append('\n');
         }
         b.append("Root: ").append(r.root()).append('\n');
         b.append("Described by: ").append(r.manifest() == null ? "folder layout" : "manifest " + r.manifest()).append('\n');
+        b.append("Protocol: ").append(protocol.words()).append('\n');
         b.append('\n');
         b.append("Centres (").append(r.centres().size()).append("), readers (").append(r.readers().size()).append("):\n");
         for (String c : r.centres()) {

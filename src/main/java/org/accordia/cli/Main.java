@@ -30,26 +30,46 @@ import picocli.CommandLine.Command;
         "2:bad input or usage (one line names the file and the problem)",
         "3:analyze --fail-on: a verdict reached the named level"
     })
-public final class Main implements Runnable {
+public final class Main implements java.util.concurrent.Callable<Integer> {
 
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
 
+    /** A bare {@code accordia}: the usage on standard error, exit 2. */
     @Override
-    public void run() {
-        throw new CommandLine.ParameterException(spec.commandLine(), "Missing subcommand");
+    public Integer call() {
+        PrintWriter err = spec.commandLine().getErr();
+        err.println("accordia: missing command; the commands are listed below.");
+        spec.commandLine().usage(err);
+        err.flush();
+        return ExitCodes.INPUT;
+    }
+
+    /** The command line with every subcommand and the project's help layout ({@link HelpFormat}). */
+    static CommandLine commandLine() {
+        CommandLine cl = new CommandLine(new Main());
+        cl.setHelpFactory(new HelpFormat()); // after the subcommands, so that they all get it
+        return cl;
     }
 
     /** Runs the command line and returns the exit code (no System.exit; tests call this). */
     public static int execute(PrintWriter out, PrintWriter err, String... args) {
         boolean debug = Arrays.asList(args).contains("--debug");
         String[] filtered = Arrays.stream(args).filter(a -> !a.equals("--debug")).toArray(String[]::new);
-        CommandLine cl = new CommandLine(new Main());
+        CommandLine cl = commandLine();
         cl.setOut(out);
         cl.setErr(err);
         cl.setExitCodeExceptionMapper(t -> t instanceof InputException ? ExitCodes.INPUT : ExitCodes.INTERNAL);
         cl.setParameterExceptionHandler((ex, a) -> {
             err.println("accordia: " + ex.getMessage().replace('\n', ' '));
+            // a mistyped option or command: the nearest names, then where the help is
+            String near = suggestion(ex);
+            if (near != null) {
+                err.println(near);
+            } else {
+                CommandLine.UnmatchedArgumentException.printSuggestions(ex, err);
+            }
+            err.println("Run '" + ex.getCommandLine().getCommandSpec().qualifiedName() + " --help' for the usage.");
             err.flush();
             return ExitCodes.INPUT;
         });
@@ -85,6 +105,40 @@ public final class Main implements Runnable {
         out.flush();
         err.flush();
         return code;
+    }
+
+    /**
+     * For an unknown option, the command's visible options within a Levenshtein distance of 2
+     * (Apache Commons Text), nearest first, as "Did you mean --threads?"; {@code null} when the
+     * error is not an unknown option or nothing is that near (picocli's own suggestions, which only
+     * look at options sharing the first two letters, are printed then).
+     */
+    static String suggestion(CommandLine.ParameterException ex) {
+        if (!(ex instanceof CommandLine.UnmatchedArgumentException u) || !u.isUnknownOption()
+                || u.getUnmatched().isEmpty()) {
+            return null;
+        }
+        String typed = u.getUnmatched().get(0);
+        int eq = typed.indexOf('=');
+        String name = eq > 0 ? typed.substring(0, eq) : typed;
+        org.apache.commons.text.similarity.LevenshteinDistance distance =
+            new org.apache.commons.text.similarity.LevenshteinDistance(2);
+        java.util.TreeMap<Integer, java.util.TreeSet<String>> byDistance = new java.util.TreeMap<>();
+        for (CommandLine.Model.OptionSpec o : u.getCommandLine().getCommandSpec().options()) {
+            if (o.hidden()) {
+                continue;
+            }
+            for (String candidate : o.names()) {
+                int d = distance.apply(name, candidate);
+                if (d >= 0 && candidate.length() > 2) {
+                    byDistance.computeIfAbsent(d, k -> new java.util.TreeSet<>()).add(candidate);
+                }
+            }
+        }
+        if (byDistance.isEmpty()) {
+            return null;
+        }
+        return "Did you mean " + String.join(" or ", byDistance.firstEntry().getValue()) + "?";
     }
 
     public static void main(String[] args) {

@@ -20,12 +20,20 @@ import me.tongfei.progressbar.ProgressBarStyle;
  *       {@value #PLAIN_INTERVAL_SECONDS} seconds, and a last line when closed.</li>
  *   <li>{@code quiet}: nothing at all.</li>
  * </ul>
+ * When the last case is done the case count is complete and the study-level stage is named
+ * ({@value #STUDY_STAGE}), which can take a while on a large study; {@link #close()} then says how
+ * long that stage took and that the report is being written. In plain-line mode this happens only
+ * when the cases took at least {@value #PLAIN_INTERVAL_SECONDS} s (a run long enough to show
+ * progress lines at all); a quicker run ends with its one last line, as before.
  * {@link #step()} may be called from any thread; {@link #close()} once when the cases are done
  * (further calls do nothing).
  */
 public final class Progress implements AutoCloseable {
     /** Shortest time between two plain lines, in seconds. */
     public static final int PLAIN_INTERVAL_SECONDS = 2;
+    /** The stage after the per-case work, as printed. */
+    public static final String STUDY_STAGE = "study-level statistics (centre permutation test, variance components, "
+        + "bootstrap intervals)";
 
     private final int total;
     private final PrintStream err;
@@ -36,6 +44,7 @@ public final class Progress implements AutoCloseable {
     private long lastLineNanos;
     private int done;
     private boolean closed;
+    private long casesDoneNanos = -1;
 
     private Progress(int total, boolean quiet, PrintStream err, boolean terminal, LongSupplier clockNanos) {
         if (total < 0) {
@@ -80,11 +89,25 @@ public final class Progress implements AutoCloseable {
             return;
         }
         done++;
+        long now = clockNanos.getAsLong();
+        if (done == total && (bar != null || now - startNanos >= PLAIN_INTERVAL_SECONDS * 1_000_000_000L)) {
+            // the case count is complete: say so, then name the stage that follows (plain lines only
+            // on a run long enough for progress lines, so a quick run that fails still prints one line)
+            if (bar != null) {
+                bar.step();
+                bar.close();
+            } else {
+                err.println(line(now, true));
+            }
+            casesDoneNanos = now;
+            err.println("accordia: " + STUDY_STAGE + "...");
+            err.flush();
+            return;
+        }
         if (bar != null) {
             bar.step();
             return;
         }
-        long now = clockNanos.getAsLong();
         if (now - lastLineNanos >= PLAIN_INTERVAL_SECONDS * 1_000_000_000L) {
             lastLineNanos = now;
             err.println(line(now, false));
@@ -107,7 +130,7 @@ public final class Progress implements AutoCloseable {
             return;
         }
         closed = true;
-        if (bar != null) {
+        if (bar != null && casesDoneNanos < 0) {
             bar.close();
         }
     }
@@ -122,11 +145,16 @@ public final class Progress implements AutoCloseable {
         if (quiet) {
             return;
         }
-        if (bar != null) {
+        long now = clockNanos.getAsLong();
+        if (casesDoneNanos >= 0) {
+            err.println("accordia: study-level statistics took " + duration((now - casesDoneNanos) / 1e9)
+                + "; writing the report");
+        } else if (bar != null) {
             bar.close();
             return;
+        } else {
+            err.println(line(now, true));
         }
-        err.println(line(clockNanos.getAsLong(), true));
         err.flush();
     }
 

@@ -1,6 +1,8 @@
 package org.accordia.cli;
 
+import java.nio.file.Path;
 import org.accordia.io.ReadLimits;
+import org.accordia.run.RunRequest;
 import org.accordia.study.LoadOptions;
 import org.accordia.study.Protocol;
 import picocli.CommandLine;
@@ -28,6 +30,11 @@ public final class ReadOptions {
     /** The protocol with --max-voxels applied. */
     Protocol apply(Protocol p) {
         return maxVoxels == null ? p : p.withMaxVoxels(maxVoxels);
+    }
+
+    /** A run request for {@code study} with these options and the protocol file given (or null). */
+    RunRequest request(Path study, Path protocolFile) {
+        return new RunRequest(study, protocolFile, null, maxVoxels, allowOutsideRoot);
     }
 
     LoadOptions loadOptions() {

@@ -206,17 +206,17 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
      *     compute it
      */
     public List<ReaderPerformance> rowsWithSurfaces(List<LabelVolume> masks, int[] structureLabels,
-            org.accordia.agreement.Borders.Box unionBox) {
+            org.accordia.grid.Box unionBox) {
         return rowsWithSurfaces(masks, structureLabels, unionBox, Double.NaN);
     }
 
     /**
-     * {@link #rowsWithSurfaces(List, int[], org.accordia.agreement.Borders.Box)} with each row's
+     * {@link #rowsWithSurfaces(List, int[], org.accordia.grid.Box)} with each row's
      * {@link BorderProfile} at the structure's tolerance (same distance transforms); no profile
      * when {@code toleranceMm} is NaN.
      */
     public List<ReaderPerformance> rowsWithSurfaces(List<LabelVolume> masks, int[] structureLabels,
-            org.accordia.agreement.Borders.Box unionBox, double toleranceMm) {
+            org.accordia.grid.Box unionBox, double toleranceMm) {
         boolean profile = !Double.isNaN(toleranceMm);
         if (masks.size() != readers.size()) {
             throw new IllegalArgumentException("one mask per reader expected");

@@ -2,7 +2,7 @@ package org.accordia.consensus;
 
 import java.util.Arrays;
 import java.util.List;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.accordia.io.Geometry;
 import org.accordia.io.LabelVolume;
 

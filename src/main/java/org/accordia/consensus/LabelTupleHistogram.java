@@ -3,7 +3,7 @@ package org.accordia.consensus;
 import java.util.Arrays;
 import java.util.List;
 import java.util.TreeSet;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.accordia.io.LabelVolume;
 
 /**

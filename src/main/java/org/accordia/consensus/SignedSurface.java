@@ -2,7 +2,7 @@ package org.accordia.consensus;
 
 import java.util.List;
 import org.accordia.agreement.Borders;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.accordia.agreement.DistanceTransform;
 import org.accordia.io.LabelVolume;
 

@@ -8,7 +8,6 @@ import java.util.Locale;
 import java.util.Map;
 import org.accordia.agreement.PairMetrics;
 import org.accordia.analysis.CaseRecord;
-import org.accordia.analysis.CaseSource;
 import org.accordia.analysis.FlaggedEvent;
 import org.accordia.analysis.InputChecksums;
 import org.accordia.analysis.LabelResult;
@@ -17,8 +16,8 @@ import org.accordia.analysis.StructureCase;
 import org.accordia.analysis.StudyResult;
 import org.accordia.consensus.ReaderPerformance;
 import org.accordia.consensus.ReaderSummary;
-import org.accordia.io.ImageVolume;
-import org.accordia.io.InputException;
+import org.accordia.consensus.StapleOptions;
+import org.accordia.consensus.StapleResult;
 import org.accordia.shift.CaseToAdjudicate;
 import org.accordia.shift.GroupEffect;
 import org.accordia.shift.ReaderToRecalibrate;
@@ -52,29 +51,76 @@ public final class AnalysisReport {
      * @param version the tool's version
      * @param inputs checksums of every input file
      * @param protocolSource where the protocol came from, in words (e.g. "protocol.yaml in the study")
+     * @param protocol where the protocol came from, as summary.json records it
+     * @param run the details of the run for the report's Run section, or {@code null}
      */
-    public record RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource) {
+    public record RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource,
+                          SummaryJson.ProtocolInfo protocol, Run run) {
         public RunInfo {
             inputs = List.copyOf(inputs);
+        }
+
+        /** A run whose protocol was supplied by the calling program (no details of the run). */
+        public RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource) {
+            this(version, inputs, protocolSource, new SummaryJson.ProtocolInfo("supplied", null));
+        }
+
+        /** Without the details of the run (a run made in memory, e.g. a benchmark). */
+        public RunInfo(String version, List<InputChecksums.InputFile> inputs, String protocolSource,
+                       SummaryJson.ProtocolInfo protocol) {
+            this(version, inputs, protocolSource, protocol, null);
+        }
+
+        /** The same, with the details of the run (shown in the report's Run section). */
+        public RunInfo withRun(Run details) {
+            return new RunInfo(version, inputs, protocolSource, protocol, details);
+        }
+    }
+
+    /**
+     * How the report was made, for audits and ethics files (shown in the report's "Run" section;
+     * not in the CSV tables or summary.json, which stay byte-identical between runs).
+     *
+     * @param startedUtc when the run started, ISO-8601 in UTC (e.g. {@code 2026-12-02T15:31:13Z})
+     * @param commandLine the command as typed, e.g. {@code accordia analyze demo-masks --out r}
+     *     ({@link #commandLine(String, List)} from the program name and all its arguments), or
+     *     {@code null} when the analysis was started by a program
+     * @param inputRoot the study folder (absolute)
+     * @param protocol the protocol file as listed among the inputs with its SHA-256, or {@code null}
+     *     when the built-in defaults were used
+     */
+    public record Run(String startedUtc, String commandLine, String inputRoot, InputChecksums.InputFile protocol) {
+        /** A command line from its words, each quoted for a POSIX shell when it needs to be. */
+        public static String commandLine(String command, List<String> args) {
+            StringBuilder sb = new StringBuilder(command);
+            for (String a : args) {
+                sb.append(' ').append(a.matches("[A-Za-z0-9_./:=@%+,-]+") ? a : "'" + a.replace("'", "'\\''") + "'");
+            }
+            return sb.toString();
+        }
+
+        /** The time in whole seconds, ISO-8601 UTC. */
+        public static String utc(java.time.Instant t) {
+            return java.time.format.DateTimeFormatter.ISO_INSTANT.format(t.truncatedTo(java.time.temporal.ChronoUnit.SECONDS));
         }
     }
 
     /** Writes the tables, summary.json and report.html. */
-    public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source,
-            RunInfo info) throws IOException, InputException {
-        write(out, r, pictures, source, info, 1);
+    public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures,
+            RunInfo info) throws IOException {
+        write(out, r, pictures, info, 1);
     }
 
     /**
-     * As {@link #write(OutputFolder, StudyResult, List, CaseSource, RunInfo)}; with {@code threads}
+     * As {@link #write(OutputFolder, StudyResult, List, RunInfo)}; with {@code threads}
      * ≥ 2 the HTML report (charts, pictures) is made on a second thread while this one writes the
      * tables and the summary. The files are the same either way.
      */
-    public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source,
-            RunInfo info, int threads) throws IOException, InputException {
+    public static void write(OutputFolder out, StudyResult r, List<ConsensusFiles.Picture> pictures,
+            RunInfo info, int threads) throws IOException {
         if (threads < 2) {
             writeTables(out, r, info);
-            out.writeString(OutputFolder.REPORT_HTML, html(r, pictures, source, info));
+            out.writeString(OutputFolder.REPORT_HTML, html(r, pictures, info));
             return;
         }
         java.util.concurrent.ExecutorService helper = java.util.concurrent.Executors.newSingleThreadExecutor(t -> {
@@ -83,7 +129,7 @@ public final class AnalysisReport {
             return th;
         });
         try {
-            java.util.concurrent.Future<String> html = helper.submit(() -> html(r, pictures, source, info));
+            java.util.concurrent.Future<String> html = helper.submit(() -> html(r, pictures, info));
             writeTables(out, r, info);
             String page = null;
             try {
@@ -92,7 +138,7 @@ public final class AnalysisReport {
                 Thread.currentThread().interrupt();
                 throw new IllegalStateException("report interrupted", e);
             } catch (java.util.concurrent.ExecutionException e) {
-                org.accordia.analysis.Failures.rethrow(e.getCause());
+                org.accordia.analysis.Failures.rethrowUnchecked(e.getCause());
             }
             out.writeString(OutputFolder.REPORT_HTML, page);
         } finally {
@@ -107,12 +153,11 @@ public final class AnalysisReport {
         out.writeAtomically("cases.csv", Tables.cases(r)::write);
         out.writeAtomically("reader_summary.csv", Tables.readerSummary(r)::write);
         out.writeAtomically("events.csv", Tables.events(r)::write);
-        out.writeAtomically(OutputFolder.SUMMARY_JSON, o -> JsonOutput.write(SummaryJson.of(r, info.version(), info.inputs()), o));
+        out.writeAtomically(OutputFolder.SUMMARY_JSON, o -> JsonOutput.write(SummaryJson.of(r, info.version(), info.protocol(), info.inputs()), o));
     }
 
     /** The HTML report. */
-    public static String html(StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source, RunInfo info)
-            throws InputException {
+    public static String html(StudyResult r, List<ConsensusFiles.Picture> pictures, RunInfo info) {
         String study = r.protocol().study() == null ? "Study" : r.protocol().study();
         HtmlReport h = new HtmlReport(study + ": agreement, consensus and annotation shift")
             .subtitle(String.format(Locale.ROOT, "%d cases · %d readers · %d centres · %d structure%s (%s)",
@@ -123,9 +168,10 @@ public final class AnalysisReport {
         decision(h, r);
         nextSteps(h, r);
         charts(h, r);
-        pictures(h, r, pictures, source);
+        pictures(h, r, pictures);
         events(h, r);
         methods(h, r, info);
+        run(h, info);
         for (String c : SummaryJson.CAUTIONS) {
             h.caution(c);
         }
@@ -291,11 +337,22 @@ public final class AnalysisReport {
         List<String> names = r.readers().stream().map(ReaderId::reader).toList();
         List<String> centres = r.readers().stream().map(ReaderId::centre).toList();
         h.section("Agreement between readers");
+        List<double[][]> matrices = new ArrayList<>();
         for (LabelResult l : r.labels()) {
-            double[][] m = meanDice(r, l.index() - 1);
-            h.figure(Charts.agreementMatrix(names, centres, m, "Mean pairwise Dice, " + l.name(), WIDTH, 620),
-                "Mean Dice over the cases both readers drew, readers grouped by centre. A block pattern (higher "
-                    + "agreement within centres) points to centre conventions.",
+            matrices.add(meanDice(r, l.index() - 1));
+        }
+        double scaleLower = Charts.colourScaleLower(matrices); // one colour, one value, in every structure's map
+        Map<String, List<String>> absent = Absence.absentCases(r);
+        for (LabelResult l : r.labels()) {
+            double[][] m = matrices.get(l.index() - 1);
+            int absentHere = absent.get(l.name()).size();
+            h.figure(Charts.agreementMatrix(names, centres, m, scaleLower, "Mean pairwise Dice, " + l.name(), WIDTH, 620),
+                String.format(Locale.ROOT, "Mean Dice over the cases in which both readers have a mask and at least "
+                    + "one reader drew %s%s, readers grouped by centre. A block pattern (higher agreement within "
+                    + "centres) points to centre conventions. Every structure's map uses the same colour scale, "
+                    + "from %s to 1.", l.name(), absentHere == 0 ? ""
+                    : " (" + absentHere + " case" + (absentHere == 1 ? "" : "s") + " where no reader drew it left out)",
+                    Numbers.format(scaleLower)),
                 "Reader by reader matrix of mean Dice for " + l.name());
         }
         h.section("Centre effects");
@@ -312,7 +369,7 @@ public final class AnalysisReport {
                     e.stream().mapToDouble(GroupEffect::signedSurfaceLoMm).toArray(),
                     e.stream().mapToDouble(GroupEffect::signedSurfaceHiMm).toArray(),
                     "Signed surface distance to the other centres' consensus (mm)", 0, s.minimumShiftMm(),
-                    "Centre margin, " + l.name(), WIDTH, 120 + 50 * g.size()),
+                    String.format(Locale.ROOT, "95%% case-bootstrap percentile intervals (%d resamples)", s.bootstrapResamples()), "Centre margin, " + l.name(), WIDTH, 120 + 50 * g.size()),
                 String.format(Locale.ROOT, "Mean signed surface distance of each centre's readers to the consensus of "
                     + "the other centres, with 95%% case-bootstrap intervals; positive = wider. Shaded: ±%s mm, the "
                     + "smallest shift that matters.", Numbers.format(s.minimumShiftMm())),
@@ -321,9 +378,9 @@ public final class AnalysisReport {
                     e.stream().mapToDouble(GroupEffect::volumeRatioLo).toArray(),
                     e.stream().mapToDouble(GroupEffect::volumeRatioHi).toArray(),
                     "Volume ratio to the other centres' consensus (1 = same)", 1, s.minimumVolumeShiftPercent() / 100,
-                    "Centre volume, " + l.name(), WIDTH, 120 + 50 * g.size()),
+                    String.format(Locale.ROOT, "95%% case-bootstrap percentile intervals (%d resamples)", s.bootstrapResamples()), "Centre volume, " + l.name(), WIDTH, 120 + 50 * g.size()),
                 String.format(Locale.ROOT, "Geometric-mean volume ratio of each centre's readers to the other centres' "
-                    + "consensus, with 95%% intervals. Shaded: ±%s%%, the smallest volume shift that matters.",
+                    + "consensus, with 95%% case-bootstrap percentile intervals. Shaded: ±%s%%, the smallest volume shift that matters.",
                     Numbers.format(s.minimumVolumeShiftPercent())),
                 "Forest plot of centre volume ratios for " + l.name());
         }
@@ -338,7 +395,7 @@ public final class AnalysisReport {
                     rs.stream().map(ReaderSummary::centre).toList(),
                     rs.stream().mapToDouble(ReaderSummary::meanSpecificity).toArray(),
                     rs.stream().mapToDouble(ReaderSummary::meanSensitivity).toArray(),
-                    "Specificity (within the STAPLE region)", "Sensitivity", "Readers against the others' consensus, "
+                    "Specificity (within the STAPLE region)", "Sensitivity", true, "Readers against the others' consensus, "
                         + l.name(), WIDTH, 520),
                 "Each reader's mean sensitivity and specificity against the STAPLE consensus of the other readers "
                     + "(leave-one-reader-out), over cases; specificity counts voxels within the STAPLE region ("
@@ -352,7 +409,10 @@ public final class AnalysisReport {
                     withInterval(x.meanSignedSurfaceMm(), x.signedSurfaceLoMm(), x.signedSurfaceHiMm()),
                     withInterval(x.geoMeanVolumeRatio(), x.volumeRatioLo(), x.volumeRatioHi())));
             }
-            h.table("Readers against the other readers' consensus, " + l.name() + " (mean [95% interval])",
+            int absentHere = absent.get(l.name()).size();
+            h.table("Readers against the other readers' consensus, " + l.name() + " (mean [95% interval]; cases: "
+                    + "those in which some reader drew " + l.name()
+                    + (absentHere == 0 ? "" : ", " + absentHere + " where none did left out") + ")",
                 List.of("Reader", "Centre", "Cases", "Sensitivity", "Dice", "Signed surface (mm)", "Volume ratio"),
                 rows, new boolean[] {false, false, true, true, true, true, true});
         }
@@ -388,33 +448,50 @@ public final class AnalysisReport {
         for (LabelResult l : r.labels()) {
             for (var f : l.summary().icc()) {
                 iccRows.add(List.of(l.name(), f.form(), f.value() == null ? "" : withInterval(f.value(),
-                    f.lower() == null ? Double.NaN : f.lower(), f.upper() == null ? Double.NaN : f.upper())));
+                    f.lower() == null ? Double.NaN : f.lower(), f.upper() == null ? Double.NaN : f.upper()),
+                    iccQuestion(f.form())));
             }
         }
         if (iccRows.isEmpty()) {
             h.paragraph("No ICC of volumes: fewer than two cases were read by every reader.");
         } else {
             h.table("Side table: ICC of the readers' volumes (Shrout & Fleiss forms, complete cases only)",
-                List.of("Structure", "Form", "ICC [95% interval]"), iccRows, new boolean[] {false, false, true});
+                List.of("Structure", "Form", "ICC [95% interval]", "Question it answers"), iccRows,
+                new boolean[] {false, false, true, false});
+            h.paragraph("Shrout & Fleiss (1979): form 1 treats each case's readers as a random draw (one-way), form "
+                + "2 the readers as a random sample of readers (two-way, absolute agreement), form 3 these readers "
+                + "as the only ones of interest (two-way, consistency); \"1\" is about one reader's volume, \"k\" "
+                + "about the mean of all k readers. Whether another reader like these would draw the same volume "
+                + "is ICC(2,1).");
         }
         for (LabelResult l : r.labels()) {
             List<String> cases = new ArrayList<>();
+            List<String> states = new ArrayList<>();
             double[] v = new double[r.cases().size()];
             int k = 0;
             for (CaseRecord c : r.cases()) {
+                StructureCase sc = c.structures().get(l.index() - 1);
                 cases.add(c.caseId());
-                v[k++] = 1 - c.structures().get(l.index() - 1).agreement().medianDice();
+                states.add(sc.state());
+                v[k++] = 1 - sc.agreement().medianDice();
             }
-            h.figure(Charts.rankedBars(cases, v, 1 - s.adjudicationDice(), "1 − median pairwise Dice",
+            h.figure(Charts.rankedBars(cases, v, states, 1 - s.adjudicationDice(), "1 − median pairwise Dice",
                     "Cases ranked by disagreement, " + l.name(), WIDTH, 380),
                 String.format(Locale.ROOT, "Cases above the line (median pairwise Dice below %s) go to adjudication; "
-                    + "a case can also go there for a large HD95 or an empty mask (see the table above).",
-                    Numbers.format(s.adjudicationDice())),
+                    + "a case can also go there for a large HD95 or an empty mask (see the table above).%s%s",
+                    Numbers.format(s.adjudicationDice()),
+                    states.contains(StructureCase.PARTLY_DRAWN) ? " Hatched bars: some readers drew no " + l.name()
+                        + " in that case (their pairs count with Dice 0)." : "",
+                    states.contains(StructureCase.ABSENT) ? " Cases where no reader drew " + l.name()
+                        + " have no bar: they are marked absent, which is not agreement." : ""),
                 "Bar chart of cases ranked by disagreement for " + l.name());
         }
     }
 
-    /** Mean pairwise Dice of every reader pair over the cases both drew (NaN when none). */
+    /**
+     * Mean pairwise Dice of every reader pair over the cases where both have a mask and some reader
+     * drew the structure (NaN when none).
+     */
     static double[][] meanDice(StudyResult r, int s) {
         int n = r.readers().size();
         double[][] sum = new double[n][n];
@@ -424,6 +501,9 @@ public final class AnalysisReport {
             index.put(r.readers().get(i).label(), i);
         }
         for (CaseRecord c : r.cases()) {
+            if (c.structures().get(s).absent()) {
+                continue; // no reader drew it: two empty masks' Dice of 1 is a convention, not agreement
+            }
             for (PairMetrics p : c.structures().get(s).agreement().pairs()) {
                 int a = index.get(p.centreA() + "/" + p.readerA());
                 int b = index.get(p.centreB() + "/" + p.readerB());
@@ -444,17 +524,18 @@ public final class AnalysisReport {
 
     // ------------------------------------------------------------------ pictures
 
-    private static void pictures(HtmlReport h, StudyResult r, List<ConsensusFiles.Picture> pictures, CaseSource source)
-            throws InputException {
+    private static void pictures(HtmlReport h, StudyResult r, List<ConsensusFiles.Picture> pictures) {
         h.section("The most contentious cases");
         if (pictures.isEmpty()) {
             h.paragraph("No picture: no case has two readers with a non-empty mask.");
             return;
         }
-        h.paragraph("For the cases with the lowest median pairwise Dice: the axial slice with the most voxels "
+        h.paragraph("For the cases with the lowest median pairwise Dice: the slice of constant z with the most voxels "
             + "marked by some readers but not all, every reader's contour drawn over the case's image (or, when "
             + "the study has no image, over the STAPLE probability map). Colours tell readers apart, line styles "
-            + "centres (legend in each picture).");
+            + "centres (legend in each picture). Slices are shown in array order; the letters at the edges give "
+            + "the anatomical directions from the image's affine (R/L right-left, A/P anterior-posterior, S/I "
+            + "superior-inferior).");
         int shown = 0;
         for (ConsensusFiles.Picture p : pictures) {
             if (shown++ >= PICTURES) {
@@ -462,23 +543,16 @@ public final class AnalysisReport {
             }
             var g = p.geometry();
             var box = p.box();
-            float[] background = p.probability();
-            String over = "the STAPLE probability map";
-            ImageVolume image = source.image(p.caseId(), g);
-            if (image != null) {
-                background = new float[box.size()];
-                for (int i = 0; i < background.length; i++) {
-                    background[i] = image.data()[box.gridIndex(i, g.nx(), g.ny())];
-                }
-                over = "the case's image";
-            }
+            float[] background = p.image() != null ? p.image() : p.probability();
+            String over = p.image() != null ? "the case's image" : "the STAPLE probability map";
             List<Overlays.Contour> contours = new ArrayList<>();
             for (int j = 0; j < p.readers().size(); j++) {
                 contours.add(new Overlays.Contour(p.readers().get(j).reader(), p.readers().get(j).centre(),
                     p.masks().get(j)));
             }
             byte[] png = Overlays.render(background, box.nx(), box.ny(), g.spacing(0), g.spacing(1), contours,
-                p.caseId() + " · " + p.structure() + " · axial slice z = " + p.z());
+                p.caseId() + " · " + p.structure() + " · " + Overlays.planeName(g) + " slice z = " + p.z(),
+                Overlays.edgeLabels(g));
             h.figure(png, String.format(Locale.ROOT, "%s, %s: slice z = %d with %d disputed voxels, over %s; "
                     + "median pairwise Dice %s.", p.caseId(), p.structure(), p.z(), p.disputedVoxels(), over,
                     two(1 - p.score())),
@@ -490,33 +564,66 @@ public final class AnalysisReport {
 
     private static void events(HtmlReport h, StudyResult r) {
         h.section("Flagged events");
-        if (r.events().isEmpty()) {
+        List<FlaggedEvent> all = Absence.events(r);
+        List<FlaggedEvent> events = all.stream().filter(e -> !e.kind().equals(FlaggedEvent.ABSENT)).toList();
+        List<String> absentLines = new ArrayList<>();
+        Absence.absentCases(r).forEach((structure, cases) -> {
+            if (!cases.isEmpty()) {
+                absentLines.add(String.format(Locale.ROOT, "%s: absent in %d of %d cases (no reader drew it): %s.",
+                    structure, cases.size(), r.cases().size(), String.join(", ", cases)));
+            }
+        });
+        if (all.isEmpty()) {
             h.paragraph("No missing mask, no empty mask and no undefined distance.");
             return;
         }
+        if (!absentLines.isEmpty()) {
+            h.paragraph("Structures absent from a case, one line per structure (one \"absent\" row per case in "
+                + "events.csv). Absent is not agreement: these cases are left out of the agreement summaries, the "
+                + "reader tables and the heat maps, and have no bar among the ranked cases.");
+            h.list(absentLines);
+        }
+        if (events.isEmpty()) {
+            h.paragraph("No other event: no missing mask, no empty mask beside the absences, no undefined distance.");
+            return;
+        }
         Map<String, Integer> byKind = new java.util.TreeMap<>();
-        r.events().forEach(e -> byKind.merge(e.kind(), 1, Integer::sum));
+        events.forEach(e -> byKind.merge(e.kind(), 1, Integer::sum));
         List<String> counts = new ArrayList<>();
         byKind.forEach((k, v) -> counts.add(v + " × " + k));
         h.paragraph("Shown, never dropped: " + String.join(", ", counts) + ". An empty mask gives Dice 1 with "
             + "another empty mask and 0 with a non-empty one; its surface distances are undefined and left out "
             + "of the distance summaries, and counted here. All events are in events.csv.");
         List<List<String>> rows = new ArrayList<>();
-        for (FlaggedEvent e : r.events()) {
+        for (FlaggedEvent e : events) {
             if (rows.size() >= MAX_EVENTS_SHOWN) {
                 break;
             }
             rows.add(List.of(e.caseId(), e.label(), e.reader(), e.kind(), e.detail()));
         }
-        h.table(r.events().size() > MAX_EVENTS_SHOWN ? "First " + MAX_EVENTS_SHOWN + " of " + r.events().size()
+        h.table(events.size() > MAX_EVENTS_SHOWN ? "First " + MAX_EVENTS_SHOWN + " of " + events.size()
             + " events (all in events.csv)" : null, List.of("Case", "Structure", "Reader", "Kind", "Detail"), rows, null);
     }
 
     // ------------------------------------------------------------------ methods
 
+    /** The STAPLE prior and convergence rule in words, from the options the run used. */
+    static String stapleWords(StapleOptions o) {
+        String prior = o.priorIsFixed() ? "fixed at " + Numbers.format(o.fixedPrior())
+            : "the mean foreground fraction over readers and voxels of the region";
+        int exponent = (int) Math.round(Math.log10(o.tolerance()));
+        String tolerance = o.tolerance() > 0 && Math.pow(10, exponent) == o.tolerance() ? "1e" + exponent
+            : Numbers.format(o.tolerance());
+        return "prior = " + prior + "; converged when no parameter changes by more than " + tolerance + " (at most "
+            + String.format(Locale.ROOT, "%,d", o.maxIterations()) + " iterations)";
+    }
+
     private static void methods(HtmlReport h, StudyResult r, RunInfo info) {
         ShiftSettings s = r.shiftSettings();
         h.section("Methods");
+        h.paragraph("How every number above was computed (overlap, surfaces, consensus, centre differences, "
+            + "the decision rules), the settings used and the references.");
+        h.details("Methods, settings and references (click to open)");
         h.paragraph("Overlap. Dice = 2|A∩B| / (|A|+|B|) (Dice 1945); Jaccard = |A∩B| / |A∪B| (Jaccard 1912); "
             + "volumes in ml from voxel counts and the voxel spacing. Two empty masks: Dice 1, distances undefined; "
             + "one empty: Dice 0, distances undefined (both flagged).");
@@ -525,7 +632,7 @@ public final class AnalysisReport {
             + "in mm, between voxel centres, with the voxel spacing, from an exact distance transform "
             + "(Felzenszwalb & Huttenlocher 2012). HD is the largest directed distance; HD95 the larger of the "
             + "two directed 95th percentiles (linear interpolation between order statistics, Hyndman & Fan type 7)"
-            + (r.protocol().agreement().hd95() == org.accordia.study.Protocol.Hd95Mode.POOLED
+            + (r.settings().agreement().hd95() == org.accordia.study.Protocol.Hd95Mode.POOLED
                 ? "; this run uses the pooled variant, the 95th percentile of both directed sets together" : "")
             + "; ASSD the mean of both directed sets; NSD the share of border voxels within τ of the other border "
             + "(Nikolov et al. 2021), τ per structure. Signed surface distance: mean over a reader's border "
@@ -533,9 +640,10 @@ public final class AnalysisReport {
         h.paragraph("Fleiss' kappa (Fleiss 1971) over the union of all readers' structure grown by τ, so that the "
             + "background far from the structure does not inflate it.");
         h.paragraph("Consensus. Binary STAPLE (Warfield, Zou & Wells 2004) per structure on the decision-pattern "
-            + "histogram: W starts as the fraction of readers marking the voxel and the M-step runs first; prior = "
-            + "the mean foreground fraction over readers and voxels of the region; converged when no parameter changes by more than 1e-10 (at most 10,000 iterations); region: "
-            + r.stapleRegion() + "; consensus = voxels with W ≥ 0.5. References per reader: all readers; "
+            + "histogram: W starts as the fraction of readers marking the voxel and the M-step runs first; "
+            + stapleWords(r.settings().consensus().staple()) + "; region: "
+            + r.stapleRegion() + "; consensus = voxels with W ≥ " + Numbers.format(StapleResult.CONSENSUS_THRESHOLD)
+            + ". References per reader: all readers; "
             + "all other readers (leave-one-reader-out); readers of the other centres (leave-one-centre-out, used "
             + "for centre effects). Multi-label STAPLE (Warfield et al. 2004; Rohlfing et al. 2004) for the label "
             + "masks" + (r.multiLabelUndecided() >= 0 ? "; voxels it cannot decide (exact ties) carry the value "
@@ -564,23 +672,12 @@ public final class AnalysisReport {
         h.subsection("Settings used");
         h.paragraph("Protocol: " + info.protocolSource() + ".");
         List<Map.Entry<String, String>> settings = new ArrayList<>();
-        SummaryJson.settings(r.protocol(), s).forEach((k, v) -> settings.add(Map.entry(k,
+        SummaryJson.settings(r.settings()).forEach((k, v) -> settings.add(Map.entry(k,
             v instanceof Double d ? Numbers.format(d) : String.valueOf(v))));
         settings.add(Map.entry("structures", String.join("; ", r.structures().stream()
             .map(x -> x.name() + " = labels " + x.labels() + ", τ " + Numbers.format(x.toleranceMm()) + " mm").toList())));
         settings.add(Map.entry("software", "Accordia " + info.version()));
         h.definitionList(settings);
-        h.subsection("Input checksums (SHA-256)");
-        if (info.inputs().isEmpty()) {
-            h.paragraph("No input file (cases generated in memory).");
-        } else {
-            List<List<String>> rows = new ArrayList<>();
-            for (InputChecksums.InputFile f : info.inputs()) {
-                rows.add(List.of(f.path(), Long.toString(f.bytes()), f.sha256()));
-            }
-            h.table(info.inputs().size() + " input files", List.of("File", "Bytes", "SHA-256"), rows,
-                new boolean[] {false, true, false});
-        }
         h.subsection("References");
         h.list(List.of(
             "Anderson MJ (2001). A new method for non-parametric multivariate analysis of variance. Austral Ecology 26:32–46.",
@@ -595,9 +692,64 @@ public final class AnalysisReport {
             "Rohlfing T, Russakoff DB, Maurer CR (2004). Performance-based classifier combination in atlas-based image segmentation. IEEE TMI 23:983–994.",
             "Shrout PE, Fleiss JL (1979). Intraclass correlations: uses in assessing rater reliability. Psychological Bulletin 86:420–428.",
             "Warfield SK, Zou KH, Wells WM (2004). Simultaneous truth and performance level estimation (STAPLE). IEEE TMI 23:903–921."));
+        h.endDetails();
+    }
+
+    // ------------------------------------------------------------------ run
+
+    private static void run(HtmlReport h, RunInfo info) {
+        h.section("Run");
+        List<Map.Entry<String, String>> rows = new ArrayList<>();
+        Run run = info.run();
+        if (run != null) {
+            rows.add(Map.entry("Started (UTC)", run.startedUtc()));
+            if (run.commandLine() != null) {
+                rows.add(Map.entry("Command", run.commandLine()));
+            }
+            rows.add(Map.entry("Study folder", run.inputRoot()));
+        }
+        rows.add(Map.entry("Protocol", info.protocolSource()));
+        if (run != null && run.protocol() != null) {
+            rows.add(Map.entry("Protocol file", run.protocol().path()));
+            rows.add(Map.entry("Protocol SHA-256", run.protocol().sha256()));
+        }
+        rows.add(Map.entry("Software", "Accordia " + info.version()));
+        long bytes = info.inputs().stream().mapToLong(InputChecksums.InputFile::bytes).sum();
+        rows.add(Map.entry("Inputs", info.inputs().isEmpty() ? "none (cases generated in memory)"
+            : info.inputs().size() + " files, " + bytes + " bytes; SHA-256 of each below"));
+        h.definitionList(rows);
+        if (!info.inputs().isEmpty()) {
+            h.details("SHA-256 of the " + info.inputs().size() + " input files (click to open)");
+            List<List<String>> files = new ArrayList<>();
+            for (InputChecksums.InputFile f : info.inputs()) {
+                files.add(List.of(f.path(), Long.toString(f.bytes()), f.sha256()));
+            }
+            h.styledTable(null, List.of("File", "Bytes", "SHA-256"), files, new String[] {"mono", "num", "mono"});
+            h.endDetails();
+        }
     }
 
     // ------------------------------------------------------------------ helpers
+
+    /** Which question an ICC form answers (Shrout &amp; Fleiss 1979; McGraw &amp; Wong 1996), in one sentence. */
+    static String iccQuestion(String form) {
+        String f = form.replace(" ", "");
+        boolean single = f.endsWith(",1)");
+        String who = single ? "one reader's volume" : "the mean volume of all the readers";
+        if (f.startsWith("ICC(1,")) {
+            return "How reliable is " + who + " when readers are not told apart (one-way; reader differences count "
+                + "as error)?";
+        }
+        if (f.startsWith("ICC(2,")) {
+            return "Would other readers like these give the same " + (single ? "volume" : "mean volume")
+                + " (absolute agreement; a reader who draws larger lowers it)?";
+        }
+        if (f.startsWith("ICC(3,")) {
+            return "Do these readers rank and space the cases alike (consistency; a reader who draws uniformly "
+                + "larger does not lower it)?" + (single ? "" : " For the mean of all the readers.");
+        }
+        return "";
+    }
 
     private static String two(double v) {
         return Double.isFinite(v) ? String.format(Locale.ROOT, "%.2f", v) : "n/a";

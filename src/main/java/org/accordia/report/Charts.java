@@ -18,6 +18,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
+import org.accordia.analysis.StructureCase;
 import org.jfree.chart.JFreeChart;
 import org.jfree.chart.LegendItem;
 import org.jfree.chart.LegendItemCollection;
@@ -102,6 +103,35 @@ public final class Charts {
      */
     public static byte[] agreementMatrix(List<String> readers, List<String> centres, double[][] meanDice,
                                          String title, int widthPx, int heightPx) {
+        return agreementMatrix(readers, centres, meanDice, Double.NaN, title, widthPx, heightPx);
+    }
+
+    /**
+     * The lower end of the colour scale for these matrices: the lowest defined value over all of
+     * them, rounded down to a tenth, between 0 and 0.9 (0 when none is defined). Give it to every
+     * matrix of one report so that one colour means one value in all of them.
+     */
+    public static double colourScaleLower(List<double[][]> matrices) {
+        double min = Double.POSITIVE_INFINITY;
+        for (double[][] m : matrices) {
+            for (double[] row : m) {
+                for (double v : row) {
+                    if (Numbers.isDefined(v)) {
+                        min = Math.min(min, v);
+                    }
+                }
+            }
+        }
+        return Double.isInfinite(min) ? 0 : Math.max(0, Math.min(0.9, Math.floor(min * 10) / 10));
+    }
+
+    /**
+     * As {@link #agreementMatrix(List, List, double[][], String, int, int)}, with the colour scale
+     * running from {@code scaleLower} to 1 ({@link #colourScaleLower}); NaN: from this matrix's
+     * own lowest value. Values below {@code scaleLower} take its colour.
+     */
+    public static byte[] agreementMatrix(List<String> readers, List<String> centres, double[][] meanDice,
+                                         double scaleLower, String title, int widthPx, int heightPx) {
         Png.checkSize(widthPx, heightPx);
         int n = readers.size();
         if (n == 0 || centres.size() != n || meanDice.length != n) {
@@ -140,7 +170,8 @@ public final class Charts {
                 }
             }
         }
-        double lower = Double.isInfinite(min) ? 0 : Math.max(0, Math.min(0.9, Math.floor(min * 10) / 10));
+        double lower = Numbers.isDefined(scaleLower) ? Math.max(0, Math.min(0.9, scaleLower))
+            : Double.isInfinite(min) ? 0 : Math.max(0, Math.min(0.9, Math.floor(min * 10) / 10));
         DefaultXYZDataset data = new DefaultXYZDataset();
         data.addSeries("mean Dice", xyz);
         SequentialScale scale = new SequentialScale(lower, 1.0);
@@ -195,7 +226,7 @@ public final class Charts {
                 String text = Numbers.isDefined(v) ? String.format(Locale.ROOT, "%.2f", v) : "n/a";
                 XYTextAnnotation t = new XYTextAnnotation(text, xyz[0][k], xyz[1][k]);
                 t.setFont(cellFont);
-                double tone = Numbers.isDefined(v) ? (v - lower) / (1.0 - lower) : 0;
+                double tone = Numbers.isDefined(v) ? Math.max(0, (v - lower) / (1.0 - lower)) : 0;
                 t.setPaint(tone > 0.55 ? Color.WHITE : Palette.INK);
                 if (!Numbers.isDefined(v)) {
                     t.setBackgroundPaint(Color.WHITE);
@@ -249,16 +280,21 @@ public final class Charts {
             if (!Numbers.isDefined(value)) {
                 return undefined;
             }
-            return Palette.sequential(upper > lower ? (value - lower) / (upper - lower) : 1.0);
+            return Palette.sequential(upper > lower ? Math.max(0, Math.min(1, (value - lower) / (upper - lower))) : 1.0);
         }
     }
 
     static TexturePaint hatch() {
+        return hatch(new Color(0x8A8F99), 2);
+    }
+
+    /** Diagonal stripes of the colour on white, {@code stripe} of every 8 pixels wide. */
+    static TexturePaint hatch(Color colour, int stripe) {
         BufferedImage tile = new BufferedImage(8, 8, BufferedImage.TYPE_INT_RGB);
         for (int yy = 0; yy < 8; yy++) {
             for (int xx = 0; xx < 8; xx++) {
-                boolean line = Math.floorMod(xx - yy, 8) < 2;
-                tile.setRGB(xx, yy, line ? 0x8A8F99 : 0xFFFFFF);
+                boolean line = Math.floorMod(xx - yy, 8) < stripe;
+                tile.setRGB(xx, yy, line ? colour.getRGB() & 0xFFFFFF : 0xFFFFFF);
             }
         }
         return new TexturePaint(tile, new Rectangle2D.Double(0, 0, 8, 8));
@@ -312,6 +348,18 @@ public final class Charts {
     public static byte[] intervalPlot(List<String> names, double[] estimate, double[] lo, double[] hi,
                                       String axisLabel, double referenceLine, Double bandHalfWidth,
                                       String title, int widthPx, int heightPx) {
+        return intervalPlot(names, estimate, lo, hi, axisLabel, referenceLine, bandHalfWidth, "intervals", title,
+            widthPx, heightPx);
+    }
+
+    /**
+     * As {@link #intervalPlot(List, double[], double[], double[], String, double, Double, String, int, int)},
+     * with the note under the chart saying what the bars are, e.g. "95% case-bootstrap percentile
+     * intervals (2000 resamples)".
+     */
+    public static byte[] intervalPlot(List<String> names, double[] estimate, double[] lo, double[] hi,
+                                      String axisLabel, double referenceLine, Double bandHalfWidth,
+                                      String intervalWords, String title, int widthPx, int heightPx) {
         Png.checkSize(widthPx, heightPx);
         int n = names.size();
         if (n == 0 || estimate.length != n || lo.length != n || hi.length != n) {
@@ -394,7 +442,7 @@ public final class Charts {
             plot.addAnnotation(t, false);
         }
         JFreeChart chart = chart(title, plot, false);
-        note(chart, "Points: estimates; bars: intervals as supplied; dashed line: reference"
+        note(chart, "Points: estimates; bars: " + intervalWords + "; dashed line: reference"
             + (bandHalfWidth != null && Numbers.isDefined(bandHalfWidth) && bandHalfWidth != 0 ? "; shaded band: smallest difference that matters." : "."));
         return render(chart, widthPx, heightPx);
     }
@@ -409,6 +457,19 @@ public final class Charts {
      */
     public static byte[] scatter(List<String> names, List<String> groups, double[] x, double[] y,
                                  String xLabel, String yLabel, String title, int widthPx, int heightPx) {
+        return scatter(names, groups, x, y, xLabel, yLabel, false, title, widthPx, heightPx);
+    }
+
+    /**
+     * As {@link #scatter(List, List, double[], double[], String, String, String, int, int)}; with
+     * {@code proportions} both axes are proportions (e.g. sensitivity and specificity): ticks at a
+     * round step (0.01, 0.02, 0.05, 0.1, 0.2 or 0.25, at most about six per axis) and only within
+     * [0, 1]; the plotted range stays within [0, 1] except for a margin that keeps points and their
+     * labels at 1 inside the picture.
+     */
+    public static byte[] scatter(List<String> names, List<String> groups, double[] x, double[] y,
+                                 String xLabel, String yLabel, boolean proportions, String title, int widthPx,
+                                 int heightPx) {
         Png.checkSize(widthPx, heightPx);
         int n = names.size();
         if (groups.size() != n || x.length != n || y.length != n) {
@@ -447,8 +508,8 @@ public final class Charts {
         renderer.setDefaultItemLabelPaint(Palette.INK);
         renderer.setDefaultPositiveItemLabelPosition(new ItemLabelPosition(ItemLabelAnchor.OUTSIDE12, TextAnchor.BOTTOM_CENTER));
         renderer.setDefaultNegativeItemLabelPosition(new ItemLabelPosition(ItemLabelAnchor.OUTSIDE12, TextAnchor.BOTTOM_CENTER));
-        NumberAxis xa = new NumberAxis(xLabel);
-        NumberAxis ya = new NumberAxis(yLabel);
+        NumberAxis xa = proportions ? new ProportionAxis(xLabel) : new NumberAxis(xLabel);
+        NumberAxis ya = proportions ? new ProportionAxis(yLabel) : new NumberAxis(yLabel);
         for (NumberAxis a : List.of(xa, ya)) {
             a.setAutoRangeIncludesZero(false);
             a.setLowerMargin(0.08);
@@ -456,6 +517,10 @@ public final class Charts {
             styleValueAxis(a);
         }
         ya.setUpperMargin(0.15); // room for the labels above the points
+        if (proportions) {
+            proportionRange(xa, x, 0.04);
+            proportionRange(ya, y, 0.12);
+        }
         XYPlot plot = new XYPlot(data, xa, ya, renderer);
         stylePlot(plot);
         JFreeChart chart = chart(title, plot, true);
@@ -463,6 +528,63 @@ public final class Charts {
             note(chart, "Not shown (undefined value): " + String.join(", ", left) + ".");
         }
         return render(chart, widthPx, heightPx);
+    }
+
+    /** The step of the ticks on a proportion axis spanning {@code span}: about six ticks at most. */
+    static double proportionTickUnit(double span) {
+        for (double u : new double[] {0.01, 0.02, 0.05, 0.1, 0.2, 0.25}) {
+            if (span / u <= 6) {
+                return u;
+            }
+        }
+        return 0.25;
+    }
+
+    /**
+     * Fixes a proportion axis's range from the defined values: whole tick steps around them within
+     * [0, 1], plus {@code room} (a fraction of the span) beyond them for the markers and labels.
+     */
+    static void proportionRange(NumberAxis a, double[] values, double room) {
+        double min = Double.POSITIVE_INFINITY;
+        double max = Double.NEGATIVE_INFINITY;
+        for (double v : values) {
+            if (Numbers.isDefined(v)) {
+                min = Math.min(min, Math.max(0, Math.min(1, v)));
+                max = Math.max(max, Math.max(0, Math.min(1, v)));
+            }
+        }
+        if (min > max) {
+            min = 0;
+            max = 1;
+        }
+        double unit = proportionTickUnit(Math.max(max - min, 0.02));
+        double lower = Math.max(0, Math.floor((min - unit / 2) / unit) * unit);
+        double upper = Math.min(1, Math.ceil((max + unit / 4) / unit) * unit);
+        if (upper - lower < unit) {
+            lower = Math.max(0, upper - unit);
+        }
+        double span = upper - lower;
+        a.setAutoRange(false);
+        a.setRange(lower > 0 ? lower : -room * span / 3, upper + (upper >= 1 ? room * span : 0));
+        a.setTickUnit(new org.jfree.chart.axis.NumberTickUnit(unit,
+            new DecimalFormat(unit < 0.1 ? "0.00" : "0.0", DecimalFormatSymbols.getInstance(Locale.ROOT))));
+    }
+
+    /** A number axis for a proportion: no tick is drawn outside [0, 1], whatever the range's margins. */
+    static final class ProportionAxis extends NumberAxis {
+        private static final long serialVersionUID = 1L;
+
+        ProportionAxis(String label) {
+            super(label);
+        }
+
+        @Override
+        @SuppressWarnings({"rawtypes", "unchecked"})
+        public List refreshTicks(Graphics2D g2, AxisState state, Rectangle2D dataArea, RectangleEdge edge) {
+            List ticks = new ArrayList(super.refreshTicks(g2, state, dataArea, edge));
+            ticks.removeIf(t -> t instanceof NumberTick n && (n.getValue() > 1 + 1e-9 || n.getValue() < -1e-9));
+            return ticks;
+        }
     }
 
     // ------------------------------------------------------------------ stacked shares
@@ -537,7 +659,7 @@ public final class Charts {
         renderer.setDefaultItemLabelFont(LABEL_FONT.deriveFont(Font.BOLD));
         renderer.setDefaultItemLabelPaint(Color.WHITE);
         renderer.setDefaultPositiveItemLabelPosition(new ItemLabelPosition(ItemLabelAnchor.CENTER, TextAnchor.CENTER));
-        CategoryAxis ca = new CategoryAxis(categories.size() > 1 ? "Label" : null);
+        CategoryAxis ca = new CategoryAxis(categories.size() > 1 ? "Structure" : null);
         ca.setTickLabelsVisible(categories.size() > 1);
         styleCategoryAxis(ca);
         NumberAxis va = new NumberAxis("Share of the total (%)");
@@ -565,37 +687,70 @@ public final class Charts {
      */
     public static byte[] rankedBars(List<String> names, double[] values, double threshold, String axisLabel,
                                     String title, int widthPx, int heightPx) {
+        return rankedBars(names, values, null, threshold, axisLabel, title, widthPx, heightPx);
+    }
+
+    /**
+     * As {@link #rankedBars(List, double[], double, String, String, int, int)}, with a state per
+     * name ({@code null} for all {@link StructureCase#DRAWN}): a name whose state is
+     * {@link StructureCase#ABSENT} (no reader drew the structure) gets no bar — its value would be
+     * a convention, not agreement — but a mark "absent" at the right end of the axis and a note
+     * naming it; a name whose state is {@link StructureCase#PARTLY_DRAWN} (some readers drew
+     * nothing) is drawn hatched in its colour, explained in the legend.
+     */
+    public static byte[] rankedBars(List<String> names, double[] values, List<String> states, double threshold,
+                                    String axisLabel, String title, int widthPx, int heightPx) {
         Png.checkSize(widthPx, heightPx);
         int n = names.size();
-        if (values.length != n) {
-            throw new IllegalArgumentException("need one value per name (" + n + " names)");
+        if (values.length != n || (states != null && states.size() != n)) {
+            throw new IllegalArgumentException("need one value (and state) per name (" + n + " names)");
         }
         List<Integer> idx = new ArrayList<>();
+        List<String> absent = new ArrayList<>();
         int undefined = 0;
         for (int i = 0; i < n; i++) {
-            if (Numbers.isDefined(values[i])) {
+            String state = states == null ? StructureCase.DRAWN : states.get(i);
+            if (StructureCase.ABSENT.equals(state)) {
+                absent.add(names.get(i));
+            } else if (Numbers.isDefined(values[i])) {
                 idx.add(i);
             } else {
                 undefined++;
             }
         }
+        java.util.Collections.sort(absent);
         idx.sort(Comparator.<Integer>comparingDouble(i -> -values[i]).thenComparing(names::get).thenComparing(i -> i));
         DefaultCategoryDataset data = new DefaultCategoryDataset();
         boolean[] above = new boolean[idx.size()];
+        boolean[] partly = new boolean[idx.size()];
         int aboveCount = 0;
+        int partlyCount = 0;
         for (int r = 0; r < idx.size(); r++) {
             int i = idx.get(r);
             // unique column keys even for repeated names
             data.addValue(values[i], "value", new RankedKey(r, names.get(i)));
             above[r] = values[i] > threshold;
+            partly[r] = states != null && StructureCase.PARTLY_DRAWN.equals(states.get(i));
             aboveCount += above[r] ? 1 : 0;
+            partlyCount += partly[r] ? 1 : 0;
         }
+        List<RankedKey> absentKeys = new ArrayList<>();
+        for (int k = 0; k < absent.size(); k++) {
+            RankedKey key = new RankedKey(idx.size() + k, absent.get(k));
+            absentKeys.add(key);
+            data.addValue(null, "value", key); // a place on the axis, no bar
+        }
+        Paint warnHatch = hatch(Palette.WARN, 4);
+        Paint calmHatch = hatch(Palette.CALM, 4);
         BarRenderer renderer = new BarRenderer() {
             private static final long serialVersionUID = 1L;
 
             @Override
             public Paint getItemPaint(int row, int column) {
-                return above[column] ? Palette.WARN : Palette.CALM;
+                if (column >= above.length) {
+                    return Palette.MUTED;
+                }
+                return partly[column] ? (above[column] ? warnHatch : calmHatch) : above[column] ? Palette.WARN : Palette.CALM;
             }
         };
         renderer.setBarPainter(new StandardBarPainter());
@@ -603,9 +758,9 @@ public final class Charts {
         renderer.setDrawBarOutline(false);
         renderer.setItemMargin(0);
         renderer.setMaximumBarWidth(0.08);
-        CategoryAxis ca = new CategoryAxis(idx.size() <= MAX_NAMED_BARS
+        CategoryAxis ca = new CategoryAxis(idx.size() + absent.size() <= MAX_NAMED_BARS
             ? "Case (ranked)" : "Cases ranked (" + idx.size() + "; names in the table)");
-        ca.setTickLabelsVisible(idx.size() <= MAX_NAMED_BARS);
+        ca.setTickLabelsVisible(idx.size() + absent.size() <= MAX_NAMED_BARS);
         ca.setCategoryLabelPositions(CategoryLabelPositions.UP_90);
         ca.setCategoryMargin(0.15);
         styleCategoryAxis(ca);
@@ -616,8 +771,20 @@ public final class Charts {
         for (int i : idx) {
             top = Math.max(top, values[i]);
         }
-        va.setRange(Math.min(0, threshold), top > 0 ? top * 1.08 : 1.0);
+        double upper = top > 0 ? top * 1.08 : 1.0;
+        va.setRange(Math.min(0, threshold), upper);
         CategoryPlot plot = new CategoryPlot(data, ca, va, renderer);
+        for (RankedKey key : absentKeys) {
+            // the mark of an absent case: the word, upright from the axis, where its bar would be
+            org.jfree.chart.annotations.CategoryTextAnnotation mark =
+                new org.jfree.chart.annotations.CategoryTextAnnotation("\u2205 absent", key, upper * 0.02);
+            mark.setFont(NOTE_FONT.deriveFont(Font.BOLD));
+            mark.setPaint(Palette.MUTED);
+            mark.setTextAnchor(TextAnchor.CENTER_LEFT);
+            mark.setRotationAnchor(TextAnchor.CENTER_LEFT);
+            mark.setRotationAngle(-Math.PI / 2);
+            plot.addAnnotation(mark);
+        }
         stylePlot(plot);
         plot.setDomainGridlinesVisible(false);
         ValueMarker line = new ValueMarker(threshold, Palette.INK,
@@ -633,8 +800,20 @@ public final class Charts {
         Shape box = new Rectangle2D.Double(-6, -6, 12, 12);
         legend.add(new LegendItem("above the threshold (" + aboveCount + ")", null, null, null, box, Palette.WARN));
         legend.add(new LegendItem("at or below (" + (idx.size() - aboveCount) + ")", null, null, null, box, Palette.CALM));
+        if (partlyCount > 0) {
+            legend.add(new LegendItem("hatched: some readers drew nothing (" + partlyCount + ")", null, null, null, box,
+                hatch(Palette.INK, 3)));
+        }
+        if (!absent.isEmpty()) {
+            legend.add(new LegendItem("\u2205 absent: no reader drew it (" + absent.size() + ")", null, null, null,
+                new Rectangle2D.Double(-6, -1, 12, 2), Palette.MUTED));
+        }
         plot.setFixedLegendItems(legend);
         JFreeChart chart = chart(title, plot, true);
+        if (!absent.isEmpty()) {
+            note(chart, "No bar for " + String.join(", ", absent) + ": no reader drew the structure there "
+                + "(absent, which is not agreement).");
+        }
         if (undefined > 0) {
             note(chart, undefined + " not shown (undefined value).");
         }

@@ -5,7 +5,7 @@ import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
 import java.util.TreeSet;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.accordia.agreement.CaseAgreement;
 import org.accordia.analysis.CaseRecord;
 import org.accordia.analysis.CaseSink;
@@ -13,6 +13,8 @@ import org.accordia.analysis.StructureCase;
 import org.accordia.consensus.CaseReferences;
 import org.accordia.consensus.ConsensusOutputs;
 import org.accordia.io.Geometry;
+import org.accordia.io.ImageVolume;
+import org.accordia.io.InputException;
 import org.accordia.io.LabelVolume;
 import org.accordia.io.NiftiWriter;
 import org.accordia.study.LoadedCase;
@@ -63,9 +65,12 @@ public final class ConsensusFiles implements CaseSink {
      * @param readers the readers, case order
      * @param masks each reader's mask on the cropped slice
      * @param probability the STAPLE probability on the cropped slice
+     * @param image the case's image on the cropped slice (cropped while the case was in memory),
+     *     or null when the case has no image
      */
     public record Picture(String caseId, String structure, double score, int z, long disputedVoxels, Box box,
-                          Geometry geometry, List<ReaderId> readers, List<boolean[]> masks, float[] probability) {
+                          Geometry geometry, List<ReaderId> readers, List<boolean[]> masks, float[] probability,
+                          float[] image) {
     }
 
     private final OutputFolder folder;
@@ -95,7 +100,7 @@ public final class ConsensusFiles implements CaseSink {
     }
 
     @Override
-    public void accept(CaseWork work) throws IOException {
+    public void accept(CaseWork work) throws IOException, InputException {
         LoadedCase lc = work.loaded();
         CaseRecord rec = work.record();
         List<LabelVolume> masks = lc.masks();
@@ -126,13 +131,13 @@ public final class ConsensusFiles implements CaseSink {
         }
     }
 
-    private void considerPicture(CaseWork work) {
+    private void considerPicture(CaseWork work) throws InputException {
         CaseRecord rec = work.record();
         synchronized (this) {
             if (best.size() >= keep) {
                 Picture worst = best.last();
                 Picture probe = new Picture(rec.caseId(), "", rec.disagreementScore(), 0, 0, Box.EMPTY, null,
-                    List.of(), List.of(), null);
+                    List.of(), List.of(), null, null);
                 if (ORDER.compare(probe, worst) >= 0) {
                     return; // cannot enter the top list
                 }
@@ -151,7 +156,7 @@ public final class ConsensusFiles implements CaseSink {
     }
 
     /** The picture of the case's least-agreed structure, or null when every mask is empty. */
-    static Picture picture(CaseWork work) {
+    static Picture picture(CaseWork work) throws InputException {
         CaseRecord rec = work.record();
         int pick = -1;
         for (int s = 0; s < rec.structures().size(); s++) {
@@ -184,8 +189,16 @@ public final class ConsensusFiles implements CaseSink {
                 prob[i++] = w.at(x, y, crop.z0());
             }
         }
+        ImageVolume image = work.image().read();
+        float[] background = null;
+        if (image != null) {
+            background = new float[crop.size()];
+            for (int i = 0; i < background.length; i++) {
+                background[i] = image.data()[crop.gridIndex(i, g.nx(), g.ny())];
+            }
+        }
         return new Picture(rec.caseId(), sc.structure().name(), rec.disagreementScore(), slice.z(),
-            slice.disagreementVoxels(), crop, g, lc.readers(), masks, prob);
+            slice.disagreementVoxels(), crop, g, lc.readers(), masks, prob, background);
     }
 
     /** Each reader's structure membership over a box (x fastest within the box). */

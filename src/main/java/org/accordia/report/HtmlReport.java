@@ -67,12 +67,19 @@ public final class HtmlReport {
         h2{font-size:1.4rem;margin:2.4rem 0 .8rem;padding-bottom:.25rem;border-bottom:2px solid var(--accent)}
         h3{font-size:1.12rem;margin:1.6rem 0 .5rem}
         .subtitle{color:var(--muted);margin:0 0 1.5rem}
-        nav.contents{background:var(--band);border:1px solid var(--rule);padding:.6rem 1rem;margin:1rem 0 1.5rem}
-        nav.contents ol{margin:.2rem 0 0 1.2rem;padding:0}
+        nav.contents{background:var(--band);border:1px solid var(--rule);padding:.4rem .8rem;margin:.6rem 0 1rem;
+        font-size:.9rem}
+        nav.contents ol{display:inline;margin:0;padding:0;list-style:none}
+        nav.contents li{display:inline}
+        nav.contents li+li::before{content:" \u00b7 ";color:var(--muted)}
         nav.contents a{color:var(--accent)}
         p{margin:.6rem 0}
-        .table-wrap{overflow-x:auto;margin:.8rem 0 1.2rem}
+        .table-wrap{overflow-x:auto;margin:.8rem 0 1.2rem;max-width:100%}
         table{border-collapse:collapse;font-size:.92rem;min-width:50%}
+        .mono{font:.8rem/1.4 ui-monospace,"Cascadia Mono","DejaVu Sans Mono",Menlo,Consolas,monospace;white-space:nowrap}
+        details{margin:.8rem 0;border:1px solid var(--rule);background:#fff;padding:.2rem .9rem}
+        details>summary{cursor:pointer;font-weight:600;color:var(--accent);padding:.4rem 0}
+        details[open]>summary{border-bottom:1px solid var(--rule);margin-bottom:.4rem}
         caption{text-align:left;font-weight:600;padding:.2rem 0 .4rem;color:var(--muted)}
         th,td{padding:.3rem .65rem;border-bottom:1px solid var(--rule);text-align:left;vertical-align:top}
         thead th{border-bottom:2px solid var(--ink);background:var(--band)}
@@ -85,7 +92,13 @@ public final class HtmlReport {
         font:.86rem/1.45 ui-monospace,"Cascadia Mono","DejaVu Sans Mono",Menlo,Consolas,monospace;white-space:pre-wrap}
         dl{display:grid;grid-template-columns:max-content 1fr;gap:.25rem 1.2rem;margin:.8rem 0}
         dt{font-weight:600}
-        dd{margin:0}
+        dd{margin:0;overflow-wrap:anywhere}
+        @media (max-width:640px){
+        body{padding:1rem .8rem 2rem;font-size:15px}
+        h1{font-size:1.5rem}
+        dl{grid-template-columns:1fr}
+        dd{margin:0 0 .4rem}
+        }
         .callout{margin:1rem 0;padding:.7rem 1rem .8rem;border-left-width:.5rem;border-left-style:solid}
         .callout .head{display:flex;gap:.7rem;align-items:baseline;flex-wrap:wrap}
         .callout .title{font-weight:600}
@@ -106,6 +119,8 @@ public final class HtmlReport {
         body{max-width:none;padding:0;font-size:10.5pt}
         nav.contents{display:none}
         .table-wrap{overflow:visible}
+        details{border:0;padding:0}
+        details::details-content{content-visibility:visible;display:block}
         h2,h3{break-after:avoid;page-break-after:avoid}
         figure,.callout,tr,pre,dl{break-inside:avoid;page-break-inside:avoid}
         .callout,thead th,tbody tr:nth-child(even),pre{-webkit-print-color-adjust:exact;print-color-adjust:exact}
@@ -124,6 +139,7 @@ public final class HtmlReport {
     private final List<String> cautions = new ArrayList<>();
     private String generatedBy;
     private boolean closeSectionPending;
+    private int openDetails;
 
     /** A report with this title (page title and main heading). */
     public HtmlReport(String title) {
@@ -172,6 +188,9 @@ public final class HtmlReport {
 
     /** Starts a section (a second-level heading, listed in the contents at the top). */
     public HtmlReport section(String sectionTitle) {
+        while (openDetails > 0) {
+            endDetails();
+        }
         closeSection();
         sectionTitles.add(sectionTitle);
         body.append("<section id=\"s").append(sectionTitles.size()).append("\">\n<h2>")
@@ -226,9 +245,25 @@ public final class HtmlReport {
      * @throws IllegalArgumentException a row's width differs from the header's
      */
     public HtmlReport table(String caption, List<String> headers, List<List<String>> rows, boolean[] numericColumns) {
+        String[] classes = null;
+        if (numericColumns != null) {
+            classes = new String[numericColumns.length];
+            for (int j = 0; j < classes.length; j++) {
+                classes[j] = numericColumns[j] ? "num" : null;
+            }
+        }
+        return styledTable(caption, headers, rows, classes);
+    }
+
+    /**
+     * A table of plain-text cells with a style per column: {@code "num"} (right-aligned, tabular
+     * digits), {@code "mono"} (monospaced, never wrapped: checksums, paths; the table scrolls
+     * inside its box when too wide) or {@code null}.
+     */
+    public HtmlReport styledTable(String caption, List<String> headers, List<List<String>> rows, String[] columnClasses) {
         int width = headers.size();
-        if (numericColumns != null && numericColumns.length != width) {
-            throw new IllegalArgumentException("numericColumns has " + numericColumns.length + " entries, table has " + width + " columns");
+        if (columnClasses != null && columnClasses.length != width) {
+            throw new IllegalArgumentException("column styles: " + columnClasses.length + " entries, table has " + width + " columns");
         }
         body.append("<div class=\"table-wrap\"><table>\n");
         if (caption != null) {
@@ -236,7 +271,7 @@ public final class HtmlReport {
         }
         body.append("<thead><tr>");
         for (int j = 0; j < width; j++) {
-            body.append("<th scope=\"col\"").append(numeric(numericColumns, j) ? " class=\"num\"" : "").append('>')
+            body.append("<th scope=\"col\"").append(numeric(columnClasses, j) ? " class=\"num\"" : "").append('>')
                 .append(escape(headers.get(j))).append("</th>");
         }
         body.append("</tr></thead>\n<tbody>\n");
@@ -246,7 +281,8 @@ public final class HtmlReport {
             }
             body.append("<tr>");
             for (int j = 0; j < width; j++) {
-                body.append(numeric(numericColumns, j) ? "<td class=\"num\">" : "<td>")
+                String c = columnClasses == null ? null : columnClasses[j];
+                body.append(c == null ? "<td>" : "<td class=\"" + escape(c) + "\">")
                     .append(escape(row.get(j))).append("</td>");
             }
             body.append("</tr>\n");
@@ -255,8 +291,8 @@ public final class HtmlReport {
         return this;
     }
 
-    private static boolean numeric(boolean[] numericColumns, int j) {
-        return numericColumns != null && numericColumns[j];
+    private static boolean numeric(String[] columnClasses, int j) {
+        return columnClasses != null && "num".equals(columnClasses[j]);
     }
 
     /**
@@ -275,6 +311,28 @@ public final class HtmlReport {
             body.append("<figcaption>").append(escape(caption)).append("</figcaption>");
         }
         body.append("</figure>\n");
+        return this;
+    }
+
+    /**
+     * Opens a collapsed block with a one-line summary that the reader clicks to open (HTML
+     * {@code details}); everything added until {@link #endDetails()} is inside it. Printed open by
+     * browsers that support {@code ::details-content} (Chromium 131 and later); elsewhere a closed
+     * block does not print, so the summary should say what is inside.
+     */
+    public HtmlReport details(String summary) {
+        body.append("<details><summary>").append(escape(summary)).append("</summary>\n");
+        openDetails++;
+        return this;
+    }
+
+    /** Closes the block opened by {@link #details(String)}. */
+    public HtmlReport endDetails() {
+        if (openDetails == 0) {
+            throw new IllegalStateException("no open details block");
+        }
+        body.append("</details>\n");
+        openDetails--;
         return this;
     }
 
@@ -324,19 +382,23 @@ public final class HtmlReport {
         }
         sb.append("</header>\n");
         if (sectionTitles.size() > 1) {
-            sb.append("<nav class=\"contents\" aria-label=\"Contents\"><strong>Contents</strong><ol>\n");
+            sb.append("<nav class=\"contents\" aria-label=\"Contents\"><strong>Contents:</strong> <ol>\n");
             for (int i = 0; i < sectionTitles.size(); i++) {
                 sb.append("<li><a href=\"#s").append(i + 1).append("\">").append(escape(sectionTitles.get(i))).append("</a></li>\n");
+            }
+            if (!cautions.isEmpty()) {
+                sb.append("<li><a href=\"#cautions\">Cautions</a></li>\n");
             }
             sb.append("</ol></nav>\n");
         }
         sb.append("<main>\n").append(body);
+        sb.append("</details>\n".repeat(openDetails));
         if (closeSectionPending) {
             sb.append("</section>\n");
         }
         sb.append("</main>\n<footer>\n");
         if (!cautions.isEmpty()) {
-            sb.append("<h2>Cautions</h2>\n<ul>\n");
+            sb.append("<h2 id=\"cautions\">Cautions</h2>\n<ul>\n");
             for (String c : cautions) {
                 sb.append("<li>").append(escape(c)).append("</li>\n");
             }

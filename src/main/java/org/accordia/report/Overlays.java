@@ -16,6 +16,7 @@ import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
 import java.util.TreeSet;
+import org.accordia.io.Geometry;
 
 /**
  * Pictures of one slice with every reader's contour, for the cases the report shows.
@@ -31,12 +32,14 @@ import java.util.TreeSet;
  *       voxels, never a fill), in a colour per reader (the Okabe–Ito colour-blind-safe set, readers
  *       in sorted order) and a line style per centre (solid, dashed, dotted, dash-dot, ..., centres
  *       in sorted order), over a thin black halo so it shows on bright and dark tissue alike;</li>
- *   <li>the title, the orientation ("image x to the right, image y downwards", the pixel spacing
- *       and the scale), and a legend with one line sample per reader in its colour and its centre's
- *       style, plus the centre-to-style key.</li>
+ *   <li>the anatomical direction at the middle of each edge (R/L, A/P, S/I) when the geometry is
+ *       given ({@link #edgeLabels}), the title, the orientation note, the pixel spacing and the
+ *       scale, and a legend with one line sample per reader in its colour and its centre's style,
+ *       plus the centre-to-style key.</li>
  * </ul>
  * The slice is shown in array order: voxel (0, 0) at the top left, x growing to the right, y
- * growing downwards; no anatomical flip is applied (the caption says so).
+ * growing downwards; no anatomical flip is applied, and the edge letters say where each
+ * direction lies.
  */
 public final class Overlays {
     /** The longest side of the picture of the slice is at least this many pixels. */
@@ -49,6 +52,7 @@ public final class Overlays {
     private static final int MARGIN = 12;
     private static final Font TITLE = new Font(Font.SANS_SERIF, Font.BOLD, 15);
     private static final Font TEXT = new Font(Font.SANS_SERIF, Font.PLAIN, 12);
+    private static final Font EDGE = new Font(Font.SANS_SERIF, Font.BOLD, 16);
     private static final Color NO_BACKGROUND = new Color(0x3C3C3C);
 
     /**
@@ -83,11 +87,66 @@ public final class Overlays {
      */
     public static byte[] render(float[] backgroundSlice, int nx, int ny, double sx, double sy,
                                 List<Contour> contours, String title) {
-        return Png.encode(draw(backgroundSlice, nx, ny, sx, sy, contours, title, null));
+        return Png.encode(draw(backgroundSlice, nx, ny, sx, sy, contours, title, null, null));
+    }
+
+    /**
+     * As {@link #render(float[], int, int, double, double, List, String)}, with the anatomical
+     * directions at the edges: {@code edges} = the letters at the left, right, top and bottom edge
+     * ({@link #edgeLabels}), or {@code null} for none.
+     */
+    public static byte[] render(float[] backgroundSlice, int nx, int ny, double sx, double sy,
+                                List<Contour> contours, String title, String[] edges) {
+        return Png.encode(draw(backgroundSlice, nx, ny, sx, sy, contours, title, edges, null));
+    }
+
+    /**
+     * The anatomical direction letters at the left, right, top and bottom edges of a picture of a
+     * slice of constant k shown in array order (i to the right, j downwards), from the affine in the
+     * RAS+ convention of {@link Geometry}: the right edge is where voxel axis i points, named by the
+     * world axis it runs most along ({@code +x} R, {@code +y} A, {@code +z} S; negative L, P, I, as
+     * nibabel's {@code aff2axcodes}), the left edge the opposite; likewise j for the bottom and top.
+     */
+    public static String[] edgeLabels(Geometry g) {
+        String i = direction(g, 0);
+        String j = direction(g, 1);
+        return new String[] {opposite(i), i, opposite(j), j};
+    }
+
+    /** The plane of a slice of constant k: axial, coronal or sagittal, from the world axis k runs along. */
+    public static String planeName(Geometry g) {
+        return switch (direction(g, 2)) {
+            case "S", "I" -> "axial";
+            case "A", "P" -> "coronal";
+            default -> "sagittal";
+        };
+    }
+
+    /** The direction letter of voxel axis {@code axis} (0, 1, 2): the dominant world component, first on ties. */
+    static String direction(Geometry g, int axis) {
+        int best = 0;
+        for (int w = 1; w < 3; w++) {
+            if (Math.abs(g.affine(w, axis)) > Math.abs(g.affine(best, axis))) {
+                best = w;
+            }
+        }
+        boolean positive = g.affine(best, axis) >= 0;
+        return positive ? new String[] {"R", "A", "S"}[best] : new String[] {"L", "P", "I"}[best];
+    }
+
+    static String opposite(String d) {
+        return switch (d) {
+            case "R" -> "L";
+            case "L" -> "R";
+            case "A" -> "P";
+            case "P" -> "A";
+            case "S" -> "I";
+            default -> "S";
+        };
     }
 
     static BufferedImage draw(float[] background, int nx, int ny, double sx, double sy,
-                              List<Contour> contours, String title, Layout[] layoutOut) {
+                              List<Contour> contours, String title, String[] edges, Layout[] layoutOut) {
         if (nx < 1 || ny < 1 || (long) nx * ny > 16L * 1024 * 1024) {
             throw new IllegalArgumentException("slice size " + nx + "x" + ny + " not supported");
         }
@@ -153,11 +212,15 @@ public final class Overlays {
             }
 
             drawScaleBar(g, layout, pxPerMm);
+            if (edges != null) {
+                drawEdgeLabels(g, layout, edges);
+            }
             int y = offsetY + h + 16;
             g.setFont(TEXT);
             g.setColor(Palette.INK);
             String[] lines = {
-                "Image x to the right, image y downwards (array order, no anatomical flip).",
+                edges != null ? "Array order (no flip); edge letters: directions from the affine."
+                    : "Image x to the right, image y downwards (array order, no anatomical flip).",
                 String.format(Locale.ROOT, "Pixel %s \u00D7 %s mm. Lines follow the edges between voxels.",
                     Numbers.format(sx), Numbers.format(sy)),
                 "Colour = reader, line style = centre.",
@@ -192,6 +255,31 @@ public final class Overlays {
             g.dispose();
         }
         return img;
+    }
+
+    /** The direction letters at the middle of the left, right, top and bottom edges, white on a black halo. */
+    static void drawEdgeLabels(Graphics2D g, Layout l, String[] edges) {
+        g.setFont(EDGE);
+        FontMetrics fm = g.getFontMetrics();
+        int ascent = fm.getAscent();
+        int cx = l.offsetX() + l.widthPx() / 2;
+        int cy = l.offsetY() + l.heightPx() / 2;
+        int[][] at = {
+            {l.offsetX() + 6, cy + ascent / 2},
+            {l.offsetX() + l.widthPx() - 6 - fm.stringWidth(edges[1]), cy + ascent / 2},
+            {cx - fm.stringWidth(edges[2]) / 2, l.offsetY() + 4 + ascent},
+            {cx - fm.stringWidth(edges[3]) / 2, l.offsetY() + l.heightPx() - 6},
+        };
+        for (int k = 0; k < 4; k++) {
+            g.setColor(Color.BLACK);
+            for (int dx = -1; dx <= 1; dx++) {
+                for (int dy = -1; dy <= 1; dy++) {
+                    g.drawString(edges[k], at[k][0] + dx, at[k][1] + dy);
+                }
+            }
+            g.setColor(Color.WHITE);
+            g.drawString(edges[k], at[k][0], at[k][1]);
+        }
     }
 
     /** A white bar of a round length in mm (1, 2 or 5 times a power of ten, about a fifth of the width). */

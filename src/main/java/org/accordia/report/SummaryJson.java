@@ -7,6 +7,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.TreeMap;
+import org.accordia.analysis.AnalysisSettings;
 import org.accordia.analysis.FlaggedEvent;
 import org.accordia.analysis.InputChecksums;
 import org.accordia.analysis.LabelResult;
@@ -25,13 +26,14 @@ import org.accordia.study.Structure;
  * number format ({@link JsonOutput}), nothing that depends on the machine, the output folder, the
  * time or the number of threads.
  */
-@JsonPropertyOrder({"tool", "version", "study", "settings", "staple_region", "multi_label_undecided_value",
+@JsonPropertyOrder({"tool", "version", "study", "settings", "protocol", "staple_region", "multi_label_undecided_value",
     "structures", "labels", "flagged_events", "inputs", "cautions"})
 public record SummaryJson(
         @JsonProperty("tool") String tool,
         @JsonProperty("version") String version,
         @JsonProperty("study") StudyInfo study,
         @JsonProperty("settings") Map<String, Object> settings,
+        @JsonProperty("protocol") ProtocolInfo protocol,
         @JsonProperty("staple_region") String stapleRegion,
         @JsonProperty("multi_label_undecided_value") Integer multiLabelUndecidedValue,
         @JsonProperty("structures") List<StructureInfo> structures,
@@ -44,6 +46,18 @@ public record SummaryJson(
     @JsonPropertyOrder({"name", "cases", "readers", "centres"})
     public record StudyInfo(@JsonProperty("name") String name, @JsonProperty("cases") int cases,
                             @JsonProperty("readers") int readers, @JsonProperty("centres") List<String> centres) {
+    }
+
+    /**
+     * Where the run's protocol came from.
+     *
+     * @param source {@code given_file} (--protocol), {@code study_folder} (the study's
+     *     protocol.yaml), {@code defaults}, or {@code supplied} (by a calling program)
+     * @param file the file read, relative to the study root ('/'-separated), or its name alone
+     *     when it lies outside the study; null without a file
+     */
+    @JsonPropertyOrder({"source", "file"})
+    public record ProtocolInfo(@JsonProperty("source") String source, @JsonProperty("file") String file) {
     }
 
     /** One structure of the protocol. */
@@ -95,8 +109,14 @@ public record SummaryJson(
             + "protocols and ethics approval.",
         "Masks derived from patients' images may be personal data; Accordia runs locally and sends nothing anywhere.");
 
-    /** Builds the summary. */
+    /** Builds the summary of a run whose protocol was supplied by the calling program. */
     public static SummaryJson of(StudyResult r, String version, List<InputChecksums.InputFile> inputs) {
+        return of(r, version, new ProtocolInfo("supplied", null), inputs);
+    }
+
+    /** Builds the summary. */
+    public static SummaryJson of(StudyResult r, String version, ProtocolInfo protocol,
+            List<InputChecksums.InputFile> inputs) {
         List<StructureInfo> structures = new ArrayList<>();
         for (Structure s : r.structures()) {
             structures.add(new StructureInfo(s.name(), s.labels(), s.toleranceMm()));
@@ -115,27 +135,29 @@ public record SummaryJson(
                 s.designLimitations(), s.emptyGroups(), s.masksToCorrect()));
         }
         Map<String, Integer> events = new TreeMap<>();
-        for (String k : List.of(FlaggedEvent.MISSING_MASK, FlaggedEvent.EMPTY_MASK, FlaggedEvent.UNDEFINED_DISTANCES)) {
+        for (String k : List.of(FlaggedEvent.MISSING_MASK, FlaggedEvent.EMPTY_MASK, FlaggedEvent.UNDEFINED_DISTANCES,
+                FlaggedEvent.ABSENT)) {
             events.put(k, 0);
         }
-        r.events().forEach(e -> events.merge(e.kind(), 1, Integer::sum));
+        Absence.events(r).forEach(e -> events.merge(e.kind(), 1, Integer::sum));
         return new SummaryJson("Accordia", version,
             new StudyInfo(r.protocol().study(), r.cases().size(), r.readers().size(), r.centres()),
-            settings(r.protocol(), r.shiftSettings()), r.stapleRegion(),
+            settings(r.settings()), protocol, r.stapleRegion(),
             r.multiLabelUndecided() < 0 ? null : r.multiLabelUndecided(), structures, labels, events, inputs,
             CAUTIONS);
     }
 
     /** The settings used, by their protocol keys (docs/protocol.md), plus the shift resampling sizes. */
-    static Map<String, Object> settings(Protocol p, ShiftSettings s) {
+    static Map<String, Object> settings(AnalysisSettings a) {
+        ShiftSettings s = a.shift().settings();
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("seed", s.seed());
-        m.put("geometry_tolerance_mm", p.geometryToleranceMm());
-        m.put("max_voxels", p.maxVoxels());
-        m.put("agreement.hd95", p.agreement().hd95().key());
-        m.put("consensus.region", p.consensus().region().key());
-        m.put("consensus.bootstrap_resamples", p.consensus().bootstrapResamples());
-        m.put("shift.distance", p.shift().distance().key());
+        m.put("geometry_tolerance_mm", a.read().geometryToleranceMm());
+        m.put("max_voxels", a.read().maxVoxels());
+        m.put("agreement.hd95", a.agreement().hd95().key());
+        m.put("consensus.region", a.consensus().region().key());
+        m.put("consensus.bootstrap_resamples", a.consensus().bootstrapResamples());
+        m.put("shift.distance", a.shift().distance().key());
         m.put("shift.alpha", s.alpha());
         m.put("shift.permutations", s.permutations());
         m.put("shift.exact_limit", s.exactLimit());

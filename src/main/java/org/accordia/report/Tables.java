@@ -46,7 +46,7 @@ public final class Tables {
     /** Columns of cases.csv. */
     public static final List<String> CASES = List.of("case", "label", "readers_present", "readers_missing",
         "mean_dice", "median_dice", "worst_reader_a", "worst_reader_b", "worst_dice", "max_hd95_mm", "fleiss_kappa",
-        "flags", "adjudication_reason", "masks_to_correct");
+        "flags", "adjudication_reason", "state", "readers_drawing", "masks_to_correct");
     /** Columns of reader_summary.csv. */
     public static final List<String> READER_SUMMARY = List.of("label", "reader", "centre", "reference", "cases",
         "resamples", "sensitivity", "sensitivity_lo", "sensitivity_hi", "specificity", "specificity_lo",
@@ -150,13 +150,16 @@ public final class Tables {
                 CaseAgreement ca = sc.agreement();
                 PairMetrics worst = sc.worstPair();
                 CaseToAdjudicate adj = adjudicate.get(s).get(c.caseId());
+                boolean absent = sc.absent(); // no reader drew it: no agreement to report, not Dice 1
                 t.addRow(text(c.caseId()), text(sc.structure().name()), integer(c.readers().size()),
-                    text(String.join(" ", missing)), number(ca.meanDice()), number(ca.medianDice()),
+                    text(String.join(" ", missing)), number(absent ? Double.NaN : ca.meanDice()),
+                    number(absent ? Double.NaN : ca.medianDice()),
                     text(worst == null ? "" : worst.centreA() + "/" + worst.readerA()),
                     text(worst == null ? "" : worst.centreB() + "/" + worst.readerB()),
                     number(worst == null ? Double.NaN : worst.dice()), number(sc.maxHd95Mm()),
                     number(ca.fleissKappa()), text(flags(c, sc)),
-                    text(adj == null ? "" : String.join("; ", adj.reasons())),
+                    text(adj == null ? "" : String.join("; ", adj.reasons())), text(sc.state()),
+                    integer(sc.readersDrawing()),
                     text(String.join(" ", corrections.get(s).getOrDefault(c.caseId(), List.of()))));
             }
         }
@@ -165,6 +168,9 @@ public final class Tables {
 
     /** The flags of one case and label, ";"-separated, in a fixed order (empty when none). */
     static String flags(CaseRecord c, StructureCase sc) {
+        if (sc.absent()) {
+            return StructureCase.ABSENT; // one flag, not an empty mask per reader and every pair
+        }
         CaseAgreement ca = sc.agreement();
         List<String> f = new ArrayList<>();
         List<String> empty = new ArrayList<>();
@@ -210,10 +216,13 @@ public final class Tables {
         return t;
     }
 
-    /** One row per flagged event (missing mask, empty mask, undefined distances). */
+    /**
+     * One row per flagged event (missing mask, empty mask, undefined distances), with one
+     * {@code absent} row per case and structure that no reader drew ({@link Absence#events}).
+     */
     public static CsvTable events(StudyResult r) {
         CsvTable t = new CsvTable(EVENTS);
-        for (FlaggedEvent e : r.events()) {
+        for (FlaggedEvent e : Absence.events(r)) {
             t.addRow(text(e.caseId()), text(e.label()), text(e.reader()), text(e.kind()), text(e.detail()));
         }
         return t;

@@ -166,9 +166,6 @@ public final class EffectEstimator {
 
     /** Type-7 quantile of sorted values (linear interpolation between order statistics). */
     static double quantile(double[] sorted, double p) {
-        double h = (sorted.length - 1) * p;
-        int lo = (int) Math.floor(h);
-        int hi = Math.min(lo + 1, sorted.length - 1);
-        return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
+        return org.accordia.stats.Quantiles.type7Sorted(sorted, p);
     }
 }

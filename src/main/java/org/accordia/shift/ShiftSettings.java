@@ -1,5 +1,7 @@
 package org.accordia.shift;
 
+import org.accordia.study.Protocol;
+
 /**
  * Thresholds and resampling sizes for the annotation-shift analysis of one study. All distances in
  * mm, all percentages in percent (15 means 15 %), shares as fractions.
@@ -43,20 +45,22 @@ public record ShiftSettings(
         int centreTestResamples,
         long seed) {
 
-    public static final double DEFAULT_ALPHA = 0.05;
-    public static final double DEFAULT_MINIMUM_SHIFT_MM = 1.0;
-    public static final double DEFAULT_MINIMUM_VOLUME_SHIFT_PERCENT = 15.0;
-    public static final double DEFAULT_ADJUDICATION_DICE = 0.70;
-    public static final double DEFAULT_ADJUDICATION_HD95_MM = 10.0;
-    public static final double DEFAULT_ADJUDICATION_SHARE = 0.20;
-    public static final double DEFAULT_RECALIBRATION_TOLERANCE_MM = 1.0;
-    public static final double DEFAULT_RECALIBRATION_VOLUME_PERCENT = 20.0;
-    public static final int DEFAULT_PERMUTATIONS = 9_999;
+    // Protocol keys take their defaults from the protocol's one set (docs/protocol.md); the seed is
+    // the protocol's too, so the library and the command line start from the same one.
+    public static final double DEFAULT_ALPHA = Protocol.DEFAULT_ALPHA;
+    public static final double DEFAULT_MINIMUM_SHIFT_MM = Protocol.DEFAULT_MINIMUM_SHIFT_MM;
+    public static final double DEFAULT_MINIMUM_VOLUME_SHIFT_PERCENT = Protocol.DEFAULT_MINIMUM_VOLUME_SHIFT_PERCENT;
+    public static final double DEFAULT_ADJUDICATION_DICE = Protocol.DEFAULT_ADJUDICATION_DICE;
+    public static final double DEFAULT_ADJUDICATION_HD95_MM = Protocol.DEFAULT_ADJUDICATION_HD95_MM;
+    public static final double DEFAULT_ADJUDICATION_SHARE = Protocol.DEFAULT_ADJUDICATION_SHARE;
+    public static final double DEFAULT_RECALIBRATION_TOLERANCE_MM = Protocol.DEFAULT_RECALIBRATION_TOLERANCE_MM;
+    public static final double DEFAULT_RECALIBRATION_VOLUME_PERCENT = Protocol.DEFAULT_RECALIBRATION_VOLUME_PERCENT;
+    public static final int DEFAULT_PERMUTATIONS = Protocol.DEFAULT_PERMUTATIONS;
     public static final long DEFAULT_EXACT_LIMIT = 100_000L;
-    public static final int DEFAULT_BOOTSTRAP_RESAMPLES = 2_000;
+    public static final int DEFAULT_BOOTSTRAP_RESAMPLES = Protocol.DEFAULT_BOOTSTRAP_RESAMPLES;
     public static final int DEFAULT_VARIANCE_RESAMPLES = 200;
     public static final int DEFAULT_CENTRE_TEST_RESAMPLES = 199;
-    public static final long DEFAULT_SEED = 20_260_101L;
+    public static final long DEFAULT_SEED = Protocol.DEFAULT_SEED;
 
     public ShiftSettings {
         if (!(alpha > 0 && alpha < 1)) {

@@ -23,8 +23,9 @@ import org.accordia.io.Volumes;
  * cases, one mask per worker in memory at a time), checks each case's grids, counts the labels
  * seen, and collects every problem instead of stopping at the first.
  *
- * <p>Errors (the study is not analysable): an unreadable mask or image, a grid mismatch within a
- * case, no case, fewer than two readers. Warnings: a case with fewer than two readers, a single
+ * <p>Errors (the study is not analysable, {@link Analysability}): an unreadable mask or image, a
+ * grid mismatch within a case, no case, fewer than two readers, no mask holding a voxel of a
+ * structure analysed. Warnings: a case with fewer than two readers, a single
  * centre, protocol labels never seen, labels seen that no structure covers. Notes: a centre with a
  * single reader (its within-centre disagreement is not estimable), files ignored by discovery.
  */
@@ -78,13 +79,13 @@ public final class Inspector {
             r.summary.labelVoxels().forEach((k, v) -> labels.merge(k, v, Long::sum));
         }
 
-        Path where = study.manifest() != null ? study.manifest() : study.root();
+        Path where = Analysability.where(study);
         if (study.cases().isEmpty()) {
-            problems.add(StudyProblem.error(where, "the study has no case (expected <centre>/<reader>/<case>.<ext> or a manifest)"));
+            problems.add(Analysability.noCase(study));
         }
-        if (study.readers().size() < 2) {
-            problems.add(StudyProblem.error(where, "the study has " + study.readers().size()
-                + " reader(s); agreement needs at least 2"));
+        StudyProblem tooFewReaders = Analysability.tooFewReaders(study);
+        if (tooFewReaders != null) {
+            problems.add(tooFewReaders);
         }
         if (study.centres().size() == 1) {
             problems.add(StudyProblem.warning(where, "a single centre ('" + study.centres().get(0)
@@ -120,6 +121,12 @@ public final class Inspector {
                     problems.add(StudyProblem.warning(null, "label " + e.getKey() + " is seen (" + e.getValue()
                         + " voxels) but no structure of the protocol covers it: it is ignored"));
                 }
+            }
+        }
+        if (!study.cases().isEmpty()) {
+            StudyProblem nothing = Analysability.noStructureVoxels(structures, labels, where);
+            if (nothing != null) {
+                problems.add(nothing);
             }
         }
         return new InspectionReport(study.root(), study.manifest(), protocol.study(), study.centres(), study.readers(),

@@ -29,8 +29,20 @@ import org.accordia.io.ReadLimits;
 public record Protocol(String study, List<Structure> structures, double geometryToleranceMm, long maxVoxels,
                        long seed, Agreement agreement, Consensus consensus, Shift shift, Review review) {
 
+    // The one set of defaults (docs/protocol.md); the step settings (e.g. shift.ShiftSettings) refer to these.
     public static final double DEFAULT_GEOMETRY_TOLERANCE_MM = 0.001;
+    /** The default seed of every random generator, for the command line and the library alike. */
     public static final long DEFAULT_SEED = 20261202L;
+    public static final int DEFAULT_BOOTSTRAP_RESAMPLES = 2000;
+    public static final double DEFAULT_ALPHA = 0.05;
+    public static final int DEFAULT_PERMUTATIONS = 9999;
+    public static final double DEFAULT_MINIMUM_SHIFT_MM = 1.0;
+    public static final double DEFAULT_MINIMUM_VOLUME_SHIFT_PERCENT = 15;
+    public static final double DEFAULT_ADJUDICATION_DICE = 0.70;
+    public static final double DEFAULT_ADJUDICATION_HD95_MM = 10.0;
+    public static final double DEFAULT_RECALIBRATION_TOLERANCE_MM = 1.0;
+    public static final double DEFAULT_RECALIBRATION_VOLUME_PERCENT = 20;
+    public static final double DEFAULT_ADJUDICATION_SHARE = 0.20;
 
     /** How HD95 is summarised from the two directed distance sets. */
     public enum Hd95Mode {
@@ -188,9 +200,11 @@ public record Protocol(String study, List<Structure> structures, double geometry
     public static Protocol defaults() {
         return new Protocol(null, List.of(), DEFAULT_GEOMETRY_TOLERANCE_MM, ReadLimits.ARRAY_LIMIT, DEFAULT_SEED,
             new Agreement(Hd95Mode.PER_DIRECTION),
-            new Consensus(ConsensusRegion.UNION_MARGIN, 2000),
-            new Shift(ShiftDistance.ONE_MINUS_JACCARD, 0.05, 9999, 1.0, 15),
-            new Review(0.70, 10.0, 1.0, 20, 0.20));
+            new Consensus(ConsensusRegion.UNION_MARGIN, DEFAULT_BOOTSTRAP_RESAMPLES),
+            new Shift(ShiftDistance.ONE_MINUS_JACCARD, DEFAULT_ALPHA, DEFAULT_PERMUTATIONS, DEFAULT_MINIMUM_SHIFT_MM,
+                DEFAULT_MINIMUM_VOLUME_SHIFT_PERCENT),
+            new Review(DEFAULT_ADJUDICATION_DICE, DEFAULT_ADJUDICATION_HD95_MM, DEFAULT_RECALIBRATION_TOLERANCE_MM,
+                DEFAULT_RECALIBRATION_VOLUME_PERCENT, DEFAULT_ADJUDICATION_SHARE));
     }
 
     /** Reads a protocol file (see {@link ProtocolLoader}). */

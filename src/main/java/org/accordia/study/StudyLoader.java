@@ -46,6 +46,11 @@ import org.apache.commons.csv.DuplicateHeaderMode;
 public final class StudyLoader {
     /** Reserved top-level folder of the layout holding the case images. */
     public static final String IMAGES = "images";
+    /**
+     * The study's own protocol file at the top of a study folder: read by inspect and analyze
+     * when no protocol is given, so discovery does not list it as an ignored file.
+     */
+    public static final String PROTOCOL = "protocol.yaml";
     /** File name that makes a study folder be read through its manifest. */
     public static final String MANIFEST = "manifest.csv";
     /** The longest file name (in characters) accepted as a centre, reader or case name. */
@@ -103,6 +108,9 @@ public final class StudyLoader {
                     collectImages(top, root, rootReal, options, images, problems);
                 }
                 continue;
+            }
+            if (!dir && name.equals(PROTOCOL)) {
+                continue; // the study's protocol, read by inspect and analyze
             }
             if (!dir) {
                 problems.add(StudyProblem.note(top, "ignored: files at the top of a study folder are not part of the layout"));

@@ -6,7 +6,7 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.Random;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.junit.jupiter.api.Test;
 
 class BordersTest {

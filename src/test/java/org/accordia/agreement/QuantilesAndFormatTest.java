@@ -1,5 +1,6 @@
 package org.accordia.agreement;
 
+import org.accordia.stats.Quantiles;
 import org.accordia.study.ReaderId;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;

@@ -84,6 +84,43 @@ class CalibrationTest {
     }
 
     @Test
+    void hardCasesUnequalRostersAndFourCentresMeetBinomialBounds() throws Exception {
+        Calibration.Result r = reduced(10, "hard", "unequal", "centres-4");
+        // qbinom(0.999, 10, 0.05) = 4; qbinom(0.001, 10, 0.90) = 5
+        for (String k : List.of("hard", "unequal")) {
+            Calibration.ScenarioResult x = r.scenario(k);
+            assertEquals(List.of(), x.failedRuns(), k);
+            assertTrue(row(x, "some centre flagged").count() <= 4, k + " " + x.criteria());
+            assertTrue(row(x, "a reader named for recalibration").count() <= 4, k + " " + x.criteria());
+        }
+        Calibration.ScenarioResult four = r.scenario("centres-4");
+        assertTrue(row(four, "norvale flagged, wider").count() >= 5, four.criteria() + " " + failures(four));
+        assertTrue(row(four, "another centre flagged").count() <= 4, four.criteria().toString());
+    }
+
+    @Test
+    void runsDoNotDependOnTheThreadCount() throws Exception {
+        DemoSpec tiny = new DemoSpec(1, 6, 3, 3, 40, 40, 20, 1.5, 1.5, 3, 0, 0, 0, 0.3, 0.5);
+        List<Scenario> chosen = Scenario.all(1.5, 6, 3).stream().filter(s -> s.key().equals("unequal")
+            || s.key().equals("inclusion")).toList();
+        SimulatedStudies runner = new SimulatedStudies(true);
+        Calibration.Result one = Calibration.run(new Calibration.Settings(5, 1, runner.alpha(), tiny, chosen, 3), runner);
+        Calibration.Result two = Calibration.run(new Calibration.Settings(5, 2, runner.alpha(), tiny, chosen, 3), runner);
+        for (int k = 0; k < chosen.size(); k++) {
+            List<Calibration.Run> a = one.scenarios().get(k).runs();
+            List<Calibration.Run> b = two.scenarios().get(k).runs();
+            assertEquals(3, a.size());
+            for (int i = 0; i < a.size(); i++) {
+                assertEquals(null, a.get(i).error(), a.get(i).toString());
+                assertEquals(a.get(i).outcome(), b.get(i).outcome(), chosen.get(k).key() + " run " + i);
+                assertEquals(a.get(i).plantedDeltaMm(), b.get(i).plantedDeltaMm());
+                assertEquals(a.get(i).generatorSeed(), b.get(i).generatorSeed());
+            }
+            assertEquals(one.scenarios().get(k).criteria(), two.scenarios().get(k).criteria());
+        }
+    }
+
+    @Test
     void distinctPartitionsFollowTheMultinomialCount() {
         // 9!/(3!^3 3!) = 280; 6!/(3!^2 2!) = 10; 6!/(3! 2! 1!) = 60 (arithmetic)
         Map<String, Long> expected = Map.of("null", 280L, "centres-2", 10L, "unequal", 60L);

@@ -50,6 +50,7 @@ class ProgressTest {
             clock.addAndGet(S);
             p.step();
         }
+        clock.addAndGet(3 * S);   // the study-level statistics take 3 s
         p.close();
         p.close(); // a second close does nothing
         List<String> lines = buf.toString(StandardCharsets.UTF_8).lines().toList();
@@ -59,7 +60,31 @@ class ProgressTest {
             "accordia: 5/10 cases (1.3 cases/s, about 4 s left)",
             "accordia: 7/10 cases (1.2 cases/s, about 3 s left)",
             "accordia: 9/10 cases (1.1 cases/s, about 1 s left)",
-            "accordia: 10/10 cases (1.1 cases/s, took 9 s)"), lines);
+            "accordia: 10/10 cases (1.1 cases/s, took 9 s)",
+            "accordia: " + Progress.STUDY_STAGE + "...",
+            "accordia: study-level statistics took 3 s; writing the report"), lines);
+    }
+
+    @Test
+    void aQuickRunNamesNoStageAndAFailedOnePrintsNothing() {
+        ByteArrayOutputStream buf = new ByteArrayOutputStream();
+        PrintStream err = new PrintStream(buf, true, StandardCharsets.UTF_8);
+        AtomicLong clock = new AtomicLong(1000 * S);
+        Progress p = Progress.create(2, false, err, false, clock::get);
+        clock.addAndGet(S / 4);
+        p.step();
+        clock.addAndGet(S / 4);
+        p.step();                 // all cases in 0.5 s: no line yet
+        assertEquals("", buf.toString(StandardCharsets.UTF_8));
+        p.abandon();              // the study-level statistics fail: the error's line stays the only one
+        p.close();
+        assertEquals("", buf.toString(StandardCharsets.UTF_8));
+
+        Progress q = Progress.create(2, false, err, false, clock::get);
+        q.step();
+        q.step();
+        q.close();
+        assertEquals(List.of("accordia: 2/2 cases done"), buf.toString(StandardCharsets.UTF_8).lines().toList());
     }
 
     @Test
@@ -100,7 +125,8 @@ class ProgressTest {
         p.close();
         assertEquals(8000, p.done());
         List<String> lines = buf.toString(StandardCharsets.UTF_8).lines().toList();
-        assertTrue(lines.get(lines.size() - 1).startsWith("accordia: 8000/8000 cases"), lines.get(lines.size() - 1));
+        assertTrue(lines.get(lines.size() - 3).startsWith("accordia: 8000/8000 cases"), lines.get(lines.size() - 3));
+        assertEquals("accordia: " + Progress.STUDY_STAGE + "...", lines.get(lines.size() - 2));
     }
 
     @Test
@@ -115,6 +141,7 @@ class ProgressTest {
         String out = buf.toString(StandardCharsets.UTF_8);
         assertTrue(out.contains("accordia"), out);
         assertTrue(out.contains("4/4"), out);
+        assertTrue(out.contains(Progress.STUDY_STAGE), out);
     }
 
     @ParameterizedTest

@@ -7,7 +7,7 @@ import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.SplittableRandom;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.accordia.io.Geometry;
 import org.accordia.io.LabelVolume;
 import org.junit.jupiter.params.ParameterizedTest;

@@ -130,8 +130,8 @@ class LabelTupleBoxTest {
             if (!ints.get(0).isCompact()) {
                 org.junit.jupiter.api.Assertions.assertNull(hi.nonzeroBox(), "int volumes keep no box");
             }
-            for (org.accordia.agreement.Borders.Box known : new org.accordia.agreement.Borders.Box[] {hb.nonzeroBox(),
-                org.accordia.agreement.Borders.Box.grid(nx, ny, nz)}) {
+            for (org.accordia.grid.Box known : new org.accordia.grid.Box[] {hb.nonzeroBox(),
+                org.accordia.grid.Box.grid(nx, ny, nz)}) {
                 LabelVolume withBox = ConsensusOutputs.labelConsensus(bytes, hb, perTuple, known);
                 for (int i = 0; i < n; i++) {
                     assertEquals(expectedLabels[i], withBox.label(i));

@@ -219,6 +219,21 @@ public final class HostileCorpus {
         c.file("protocol-alias-bomb", "protocol.yaml", ascii(y.toString()));
         c.goodStudy("protocol-max-voxels-out-of-range");
         c.file("protocol-max-voxels-out-of-range", "protocol.yaml", ascii("max_voxels: 99999999999\n"));
+
+        // ---- The study's own protocol.yaml (read by inspect and analyze alike when --protocol is not given).
+        c.goodStudy("study-protocol-bad");
+        c.file("study-protocol-bad", "study/protocol.yaml", ascii("shift:\n  alpah: 0.01\n"));
+        c.goodStudy("study-protocol-folder");
+        c.file("study-protocol-folder", "study/protocol.yaml/.gitkeep", new byte[0]);
+
+        // ---- Readable studies with nothing to analyse.
+        byte[] empty = nifti1(DT_UINT8, 8, new byte[32], 4, 4, 2);
+        c.file("every-mask-empty", "study/c1/r1/case1.nii", empty);
+        c.file("every-mask-empty", "study/c1/r2/case1.nii", empty);
+        c.file("every-mask-empty-named-structures", "study/c1/r1/case1.nii", empty);
+        c.file("every-mask-empty-named-structures", "study/c1/r2/case1.nii", empty);
+        c.file("every-mask-empty-named-structures", "study/protocol.yaml",
+            ascii("structures:\n  - name: lesion\n    labels: [1]\n"));
     }
 
     /** A NIfTI gzip whose stream holds {@code header + data} followed by zeros up to {@code total} bytes. */

@@ -96,10 +96,19 @@ class HostileCorpusTest {
             new Kind("protocol-wrong-type", "protocol.yaml", "geometry_tolerance_mm: expected a number, got a list"),
             new Kind("protocol-alias-bomb", "protocol.yaml", "aliases"),
             new Kind("protocol-max-voxels-out-of-range", "protocol.yaml", "max_voxels: must lie between 1 and"),
+            // the study's own protocol.yaml: inspect reads it as analyze does, and both refuse it alike
+            new Kind("study-protocol-bad", "study/protocol.yaml", "shift.alpah: unknown key"),
+            new Kind("study-protocol-folder", "study/protocol.yaml", "protocol file is not a regular file"),
+            // readable masks without a voxel to analyse: inspect says "cannot be analysed", analyze refuses
+            new Kind("every-mask-empty", "study", "no mask holds any foreground label"),
+            new Kind("every-mask-empty-named-structures", "study",
+                "no mask holds a voxel of any structure of the protocol (lesion)"),
             // built here: cannot be committed to git
             new Kind("symlink-loop", "r2", "symbolic link loop"),
             new Kind("symlink-outside-root", "r2", "symbolic link leads outside the study root"),
-            new Kind("non-utf8-name", "c1/r", "not valid text in the system encoding"));
+            new Kind("non-utf8-name", "c1/r", "not valid text in the system encoding"),
+            // a named pipe as the study's protocol.yaml: refused before anything opens it (no hang)
+            new Kind("study-protocol-fifo", "study/protocol.yaml", "protocol file is not a regular file"));
     }
 
     /** The committed corpus and the table agree: every folder has a row. */
@@ -184,6 +193,11 @@ class HostileCorpusTest {
                 Process p = new ProcessBuilder("sh", "-c", "d=\"$1/$(printf 'r\\377')\"; mkdir -p \"$d\" && cp \"$2\" \"$d/case1.nii\"",
                     "sh", study.resolve("c1").toString(), r1.resolve("case1.nii").toString()).inheritIO().start();
                 assertEquals(0, p.waitFor(), "creating a non-UTF-8 name");
+            }
+            case "study-protocol-fifo" -> {
+                Files.write(Files.createDirectories(study.resolve("c1/r2")).resolve("case1.nii"), HostileCorpus.goodNifti());
+                Process p = new ProcessBuilder("mkfifo", study.resolve("protocol.yaml").toString()).inheritIO().start();
+                assertEquals(0, p.waitFor(), "creating a named pipe");
             }
             default -> throw new IllegalArgumentException("unknown kind " + kind);
         }

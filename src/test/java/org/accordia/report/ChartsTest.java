@@ -2,6 +2,7 @@ package org.accordia.report;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNotEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -15,6 +16,7 @@ import java.util.Set;
 import java.util.function.Supplier;
 import java.util.stream.Stream;
 import javax.imageio.ImageIO;
+import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.Arguments;
 import org.junit.jupiter.params.provider.MethodSource;
@@ -57,7 +59,55 @@ class ChartsTest {
             Arguments.of("ranked", 700, 400, (Supplier<byte[]>) () ->
                 Charts.rankedBars(List.of("c01", "c02", "c03", "c04", "c05", "c06", "c07"),
                     new double[] {0.05, 0.31, 0.12, NAN, 0.22, 0.08, 0.12},
-                    0.2, "Disagreement, 1 \u2212 median Dice (unitless)", "Cases ranked by disagreement", 700, 400)));
+                    0.2, "Disagreement, 1 \u2212 median Dice (unitless)", "Cases ranked by disagreement", 700, 400)),
+            Arguments.of("ranked-absent", 700, 400, (Supplier<byte[]>) () ->
+                Charts.rankedBars(List.of("c01", "c02", "c03", "c04"), new double[] {0.05, 0.31, 0.0, 0.4},
+                    List.of("drawn", "drawn", "absent", "partly_drawn"), 0.2, "1 \u2212 median Dice", "Ranked", 700, 400)),
+            Arguments.of("scatter-proportions", 600, 480, (Supplier<byte[]>) () ->
+                Charts.scatter(List.of("R1", "R2", "R3"), List.of("South", "North", "East"),
+                    new double[] {0.998, 1.0, 0.997}, new double[] {0.91, 1.0, 0.95},
+                    "Specificity", "Sensitivity", true, "Readers", 600, 480)));
+    }
+
+    @Test
+    void proportionAxesHaveRoundTicksWithinZeroAndOne() {
+        // values close to 1, as sensitivities and specificities are: the old axis ran to 1.02 in steps of 0.01
+        for (double[] values : List.of(new double[] {0.93, 0.97, 1.0}, new double[] {0.997, 0.998, 1.0},
+                new double[] {0.2, 0.55, 0.9}, new double[] {NAN, 0.5})) {
+            Charts.ProportionAxis axis = new Charts.ProportionAxis("p");
+            Charts.proportionRange(axis, values, 0.12);
+            java.awt.image.BufferedImage img = new java.awt.image.BufferedImage(10, 10, java.awt.image.BufferedImage.TYPE_INT_RGB);
+            java.awt.Graphics2D g = img.createGraphics();
+            List<?> ticks = axis.refreshTicks(g, new org.jfree.chart.axis.AxisState(),
+                new java.awt.geom.Rectangle2D.Double(0, 0, 400, 400), org.jfree.chart.ui.RectangleEdge.LEFT);
+            g.dispose();
+            double unit = axis.getTickUnit().getSize();
+            assertTrue(List.of(0.01, 0.02, 0.05, 0.1, 0.2, 0.25).contains(unit), "unit " + unit);
+            assertTrue(ticks.size() >= 2 && ticks.size() <= 8, ticks.size() + " ticks");
+            for (Object t : ticks) {
+                double v = ((org.jfree.chart.axis.NumberTick) t).getValue();
+                assertTrue(v >= -1e-9 && v <= 1 + 1e-9, "tick outside [0, 1]: " + v);
+                assertEquals(0, Math.abs(v / unit - Math.rint(v / unit)), 1e-6, "tick not on a round step: " + v);
+            }
+            for (double v : values) {
+                if (!Double.isNaN(v)) {
+                    assertTrue(axis.getRange().contains(v), v + " outside " + axis.getRange());
+                }
+            }
+        }
+    }
+
+    @Test
+    void heatMapsShareOneColourScale() {
+        double[][] a = {{1, 0.82}, {0.82, 1}};
+        double[][] b = {{1, 0.47}, {0.47, NAN}};
+        assertEquals(0.4, Charts.colourScaleLower(List.of(a, b)), 1e-12);
+        assertEquals(0.8, Charts.colourScaleLower(List.<double[][]>of(a)), 1e-12);
+        assertEquals(0.0, Charts.colourScaleLower(List.<double[][]>of(new double[][] {{NAN}})), 1e-12);
+        // one colour, one value: the same Dice gets the same colour in both maps when the scale is shared
+        Charts.SequentialScale shared = new Charts.SequentialScale(0.4, 1.0);
+        assertEquals(shared.getPaint(0.82), new Charts.SequentialScale(0.4, 1.0).getPaint(0.82));
+        assertNotEquals(shared.getPaint(0.82), new Charts.SequentialScale(0.8, 1.0).getPaint(0.82));
     }
 
     @ParameterizedTest(name = "{0}")

@@ -144,8 +144,10 @@ class HtmlReportTest {
     void structureTablesFiguresAndFooter() throws Exception {
         Document doc = Jsoup.parse(sample().toHtml());
         assertEquals(2, doc.select("main > section").size());
-        assertEquals(List.of("Decisions", "Readers " + HOSTILE), doc.select("nav.contents a").eachText());
+        // the footer's cautions are listed in the contents too, and the link leads to them
+        assertEquals(List.of("Decisions", "Readers " + HOSTILE, "Cautions"), doc.select("nav.contents a").eachText());
         assertEquals("#s2", doc.select("nav.contents a").get(1).attr("href"));
+        assertEquals("Cautions", doc.select(doc.select("nav.contents a").get(2).attr("href")).text());
         assertEquals(1, doc.select("#s2").size());
         Element numeric = doc.select("table").first();
         assertEquals(List.of("dice"), numeric.select("th.num").eachText());
@@ -205,5 +207,24 @@ class HtmlReportTest {
         } catch (Exception e) {
             throw new IllegalStateException(e);
         }
+    }
+
+    @Test
+    void collapsedBlocksAndMonospacedColumns() throws Exception {
+        HtmlReport h = new HtmlReport("t").section("Run").paragraph("before")
+            .details("SHA-256 of 2 files")
+            .styledTable(null, List.of("File", "SHA-256"), List.of(List.of("a.nii", "ab".repeat(32))),
+                new String[] {"mono", "mono"})
+            .endDetails()
+            .paragraph("after")
+            .details("left open by the caller");
+        Document doc = Jsoup.parse(h.toHtml());
+        assertEquals(2, doc.select("details").size(), "an open block is closed at the end");
+        assertEquals("SHA-256 of 2 files", doc.selectFirst("details > summary").text());
+        assertEquals("ab".repeat(32), doc.selectFirst("details td.mono:nth-child(2)").text());
+        assertEquals("after", doc.select("section > p").last().text(), "text after endDetails is outside the block");
+        assertThrows(IllegalStateException.class, () -> new HtmlReport("t").endDetails());
+        // printed open where the browser can (Chromium's ::details-content)
+        assertTrue(h.toHtml().contains("details::details-content{content-visibility:visible"));
     }
 }

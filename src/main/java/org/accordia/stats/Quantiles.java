@@ -1,4 +1,4 @@
-package org.accordia.agreement;
+package org.accordia.stats;
 
 /**
  * Sample quantiles by linear interpolation between order statistics: definition 7 of Hyndman
@@ -41,6 +41,36 @@ public final class Quantiles {
     /** Type-7 quantile of a copy of {@code values}; the input is left untouched. */
     public static double type7(double[] values, double p) {
         return type7InPlace(values.clone(), values.length, p);
+    }
+
+    /**
+     * Type-7 quantile of values already sorted ascending (no copy, no reordering); NaN when empty.
+     * The same interpolation as {@link #type7InPlace}.
+     */
+    public static double type7Sorted(double[] sorted, double p) {
+        if (!(p >= 0 && p <= 1)) {
+            throw new IllegalArgumentException("p must lie in [0, 1]");
+        }
+        if (sorted.length == 0) {
+            return Double.NaN;
+        }
+        double h = (sorted.length - 1) * p;
+        int lo = (int) Math.floor(h);
+        int hi = Math.min(lo + 1, sorted.length - 1);
+        return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
+    }
+
+    /**
+     * The median of the values that are not NaN: the middle value, or the mean of the two middle
+     * values {@code (a + b) / 2} for an even count; NaN when none. The input is left untouched.
+     */
+    public static double median(double[] values) {
+        double[] x = java.util.Arrays.stream(values).filter(d -> !Double.isNaN(d)).sorted().toArray();
+        if (x.length == 0) {
+            return Double.NaN;
+        }
+        int n = x.length;
+        return n % 2 == 1 ? x[n / 2] : (x[n / 2 - 1] + x[n / 2]) / 2;
     }
 
     /**

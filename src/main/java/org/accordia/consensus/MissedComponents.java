@@ -1,7 +1,7 @@
-package org.accordia.analysis;
+package org.accordia.consensus;
 
 import java.util.List;
-import org.accordia.agreement.Borders.Box;
+import org.accordia.grid.Box;
 import org.accordia.io.LabelVolume;
 import org.accordia.study.Structure;
 
@@ -21,6 +21,32 @@ public final class MissedComponents {
     }
 
     /**
+     * What one reader leaves out in one case.
+     *
+     * @param components majority components the reader does not touch
+     * @param voxels their voxels
+     */
+    public record Missed(int components, long voxels) {
+    }
+
+    /**
+     * Per reader (case order), the majority components the reader does not touch.
+     *
+     * @param masks the readers' masks, one grid
+     * @param structure the structure
+     * @param unionBox the union bounding box of all readers' structure (grid indices)
+     * @param minVoxels smallest component counted (at least 1)
+     */
+    public static List<Missed> perReader(List<LabelVolume> masks, Structure structure, Box unionBox, int minVoxels) {
+        long[][] raw = find(masks, structure, unionBox, minVoxels);
+        List<Missed> out = new java.util.ArrayList<>(raw.length);
+        for (long[] m : raw) {
+            out.add(new Missed((int) m[0], m[1]));
+        }
+        return out;
+    }
+
+    /**
      * Per reader (case order), the voxels of the majority components the reader does not touch, and
      * the number of such components.
      *
@@ -30,7 +56,7 @@ public final class MissedComponents {
      * @param minVoxels smallest component counted (at least 1)
      * @return {@code [reader][0]} = components missed, {@code [reader][1]} = their voxels
      */
-    public static long[][] find(List<LabelVolume> masks, Structure structure, Box unionBox, int minVoxels) {
+    static long[][] find(List<LabelVolume> masks, Structure structure, Box unionBox, int minVoxels) {
         int r = masks.size();
         long[][] out = new long[r][2];
         if (r < 3 || unionBox.isEmpty()) {
