@@ -288,9 +288,11 @@ public final class StudyAnalysis {
                     if (p.reference().equals(ReaderPerformance.REFERENCE_OTHER_CENTRES)) {
                         centreMeasures.add(m);
                     } else if (p.reference().equals(ReaderPerformance.REFERENCE_ALL)) {
-                        // one common reference per case: the measure the centre effects and the model share
-                        commonMeasures.add(m);
-                        variance.add(new ReaderMeasure(c.caseId(), r.centre(), keys.get(r), p.signedSurfaceMm()));
+                        // one common reference per case, antisymmetric border offset: the measure the centre
+                        // effects and the variance-component model share
+                        commonMeasures.add(new ReaderCaseMeasure(keys.get(r), r.centre(), c.caseId(),
+                            p.borderOffsetMm(), p.volumeRatio()));
+                        variance.add(new ReaderMeasure(c.caseId(), r.centre(), keys.get(r), p.borderOffsetMm()));
                     } else if (p.reference().equals(ReaderPerformance.REFERENCE_OTHERS)) {
                         readerMeasures.add(m);
                     }
@@ -311,7 +313,7 @@ public final class StudyAnalysis {
         double[][] volumes = volumeRows.size() >= 2 && readers.size() >= 2 ? volumeRows.toArray(new double[0][]) : null;
         LabelShiftInput input = new LabelShiftInput(s + 1, st.name(), distanceName(distance),
             readerCentre, distances, centreMeasures, readerMeasures, commonMeasures,
-            "signed surface distance against the consensus of all readers (mm)", variance, summaries2, volumes,
+            "border offset against the consensus of all readers (mm)", variance, summaries2, volumes,
             maskLabels);
         LabelShiftReport report = ShiftAnalysis.analyse(input, settings);
         List<String> notes = new ArrayList<>();

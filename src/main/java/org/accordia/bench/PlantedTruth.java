@@ -16,14 +16,17 @@ import org.accordia.demo.DemoSpec;
  * {@code { f(x) < centre margin + reader bias + smooth noise }} with bias and noise of mean 0, so the
  * planted μ_c is taken as the mean over the study's cases of the signed surface distance of the
  * case's truth shape as centre c plants it (grown by the centre's margin, with the centre's local
- * inclusion if any; no reader bias, no reader noise) against the unplanted truth shape, computed by
- * the project's own {@link SignedSurface#meanSignedMm(boolean[], boolean[], int, int, int, double,
- * double, double)}. A centre without a plant has μ_c = 0 exactly (identical masks). One wide reader
- * is an individual deviation, not a centre's: it leaves μ of its centre at 0.
+ * inclusion if any; no reader bias, no reader noise) against the unplanted truth shape, as the
+ * analysis measures readers against its common reference: the antisymmetric border offset
+ * ½ (d(planted → truth) − d(truth → planted)), d from the project's own {@link
+ * SignedSurface#meanSignedMm(boolean[], boolean[], int, int, int, double, double, double)}. A centre
+ * without a plant has μ_c = 0 exactly (identical masks). One wide reader is an individual deviation,
+ * not a centre's: it leaves μ of its centre at 0.
  *
- * <p>On the calibration grid (64 × 64 × 32 at 1 × 1 × 2 mm) a +1.5 mm margin measures about
- * +1.45 mm and −1.5 mm about −1.24 mm: the border voxels lie on the voxel lattice, and distances
- * are taken between voxel centres.
+ * <p>On the calibration grids a +1.5 mm margin measures about +1.35 mm: the border voxels of the
+ * grown shape lie on the voxel lattice, and distances are taken between voxel centres. One direction
+ * alone is not antisymmetric there (+1.45 mm from the grown border inwards, −1.26 mm from the
+ * unplanted border outwards), which is why both directions are averaged, here and in the analysis.
  */
 public final class PlantedTruth {
     private PlantedTruth() {
@@ -47,14 +50,15 @@ public final class PlantedTruth {
     }
 
     /**
-     * The mean over the study's cases of the signed surface distance (mm) of the planted shape
+     * The mean over the study's cases of the antisymmetric border offset (mm) of the planted shape
      * ({@link DemoGenerator.InMemory#plantedShape}) against the unplanted truth shape.
      */
     public static double meanOverCasesMm(DemoGenerator.InMemory study, double marginMm, boolean inclusion) {
         double sum = 0;
         for (String caseId : study.caseIds()) {
-            sum += signedMm(study.plantedShape(caseId, marginMm, inclusion), study.plantedShape(caseId, 0, false),
-                study.spec());
+            boolean[] planted = study.plantedShape(caseId, marginMm, inclusion);
+            boolean[] truth = study.plantedShape(caseId, 0, false);
+            sum += 0.5 * (signedMm(planted, truth, study.spec()) - signedMm(truth, planted, study.spec()));
         }
         return sum / study.caseIds().size();
     }

@@ -6,6 +6,7 @@ import java.util.Map;
 import java.util.TreeMap;
 import org.accordia.analysis.LabelResult;
 import org.accordia.analysis.StudyResult;
+import org.accordia.shift.CentreContrasts;
 import org.accordia.shift.CentreFindings;
 import org.accordia.shift.CentreRow;
 import org.accordia.shift.DesignLimitation;
@@ -24,16 +25,17 @@ import org.accordia.study.ReaderId;
  * <p>Where each field comes from in the current result:
  * <ul>
  *   <li>{@code flagged}: the centres in {@code summary.shift.flagged_centres}; the direction is the
- *       sign of the effect the verdict rules judged ({@link LabelShiftReport#centreOffsets()}, the
- *       median-centred offsets, with at least three centres with a usable effect; the raw effect
- *       against the other centres' consensus, {@link LabelShiftReport#centreEffects()}, otherwise).</li>
+ *       sign of the effect the centre-flag decision judged, the centre's Δ_c
+ *       ({@link LabelShiftReport#centreContrasts()}); for a two-centre pair the direction of each
+ *       centre's own Δ.</li>
  *   <li>{@code uncertainCentres}: centres whose centres.csv flag is {@code uncertain}
  *       ({@link VerdictRules#FLAG_UNCERTAIN}); exactly the centres behind the reasons of the rule
  *       {@code uncertain-centre-effect}, so the review fired iff the list is not empty.</li>
  *   <li>{@code readersToRecalibrate}: {@code summary.readers_to_recalibrate}.</li>
- *   <li>{@code centreEffects}: the reported centre effect and its 95 % interval per centre
- *       ({@link LabelShiftReport#centreEffects()}: signed surface distance against the other
- *       centres' consensus, case-bootstrap percentile interval).</li>
+ *   <li>{@code centreEffects}: the reported centre effect Δ_c and its 95 % interval per centre
+ *       ({@link LabelShiftReport#centreContrasts()}: the estimand of {@link PlantedTruth}, against
+ *       one common reference per case, model-based interval with readers and cases random;
+ *       centres.csv columns {@code effect_mm}, {@code effect_lo_mm}, {@code effect_hi_mm}).</li>
  *   <li>{@code alphaSentence}: the design cannot reach α ({@code summary.shift.can_reach_alpha} is
  *       false) and its plain sentence ({@code summary.shift.design_statement}) is among the
  *       decision's reasons.</li>
@@ -89,6 +91,7 @@ public record ScenarioOutcome(String label, List<FlaggedCentre> flagged, List<St
             .orElseThrow(() -> new IllegalArgumentException("no structure " + label + " in the result"));
         LabelShiftSummary summary = l.summary();
         LabelShiftReport shift = l.shift();
+        List<GroupEffect> judged = CentreContrasts.effects(shift.centreContrasts());
         List<FlaggedCentre> flagged = new ArrayList<>();
         for (String c : new java.util.TreeSet<>(summary.shift().flaggedCentres())) {
             flagged.add(new FlaggedCentre(c, direction(shift.centreFindings().of(c))));
@@ -97,7 +100,7 @@ public record ScenarioOutcome(String label, List<FlaggedCentre> flagged, List<St
             .filter(r -> VerdictRules.FLAG_UNCERTAIN.equals(r.flag())).map(CentreRow::centre).sorted().toList();
         List<ReaderId> readers = summary.readersToRecalibrate().stream()
             .map(r -> new ReaderId(r.reader(), r.centre())).sorted().toList();
-        List<CentreEstimate> effects = shift.centreEffects().stream()
+        List<CentreEstimate> effects = judged.stream()
             .map(e -> new CentreEstimate(e.group(), e.readers(), e.signedSurfaceMm(), e.signedSurfaceLoMm(),
                 e.signedSurfaceHiMm()))
             .sorted(java.util.Comparator.comparing(CentreEstimate::centre)).toList();

@@ -252,6 +252,8 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
         }
         double[] mm = new double[base.size()];
         BorderProfile[] profiles = new BorderProfile[base.size()];
+        double[] offset = new double[base.size()];
+        java.util.Arrays.fill(offset, Double.NaN);
         for (var e : byMask.entrySet()) {
             List<Integer> rowsOf = e.getValue();
             int[] idx = new int[rowsOf.size()];
@@ -266,10 +268,24 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
                     profiles[rowsOf.get(t)] = got[t];
                 }
             }
+            // the all-reader reference: also the reverse direction, for the antisymmetric border offset
+            List<Integer> allRows = new ArrayList<>();
+            for (int row : rowsOf) {
+                if (base.get(row).reference().equals(ReaderPerformance.REFERENCE_ALL)) {
+                    allRows.add(row);
+                }
+            }
+            if (!allRows.isEmpty()) {
+                int[] ai = allRows.stream().mapToInt(readerOfRow::get).toArray();
+                double[] rev = prep.reverseSignedMm(e.getKey().mask(), ai);
+                for (int t = 0; t < ai.length; t++) {
+                    offset[allRows.get(t)] = 0.5 * (mm[allRows.get(t)] - rev[t]);
+                }
+            }
         }
         List<ReaderPerformance> out = new ArrayList<>(base.size());
         for (int t = 0; t < base.size(); t++) {
-            out.add(base.get(t).withSurface(mm[t], profiles[t]));
+            out.add(base.get(t).withSurface(mm[t], profiles[t]).withBorderOffsetMm(offset[t]));
         }
         return out;
     }

@@ -162,6 +162,49 @@ public final class SignedSurface {
             return r;
         }
 
+        /**
+         * Mean signed distance of the consensus border to each listed reader's boundary (positive =
+         * the consensus border lies outside the reader's mask): d(consensus → reader), one distance
+         * transform of each reader's border.
+         */
+        double[] reverseSignedMm(boolean[] consensus, int[] readerIdx) {
+            double[] out = new double[readerIdx.length];
+            java.util.Arrays.fill(out, Double.NaN);
+            if (box.isEmpty()) {
+                return out;
+            }
+            int nx = box.nx();
+            int ny = box.ny();
+            int nz = box.nz();
+            boolean[] cb = Borders.borderMask(consensus, nx, ny, nz);
+            for (int k = 0; k < readerIdx.length; k++) {
+                boolean[] rb = readerBorder(readerIdx[k]);
+                boolean any = false;
+                for (boolean b : rb) {
+                    if (b) {
+                        any = true;
+                        break;
+                    }
+                }
+                if (!any) {
+                    continue;
+                }
+                boolean[] r = reader(readerIdx[k]);
+                double[] d2 = DistanceTransform.squaredDistanceMm2(rb, nx, ny, nz, spacing[0], spacing[1], spacing[2]);
+                double sum = 0;
+                long n = 0;
+                for (int i = 0; i < cb.length; i++) {
+                    if (cb[i]) {
+                        double d = Math.sqrt(d2[i]);
+                        sum += r[i] ? -d : d;
+                        n++;
+                    }
+                }
+                out[k] = n == 0 ? Double.NaN : sum / n;
+            }
+            return out;
+        }
+
         /** Mean signed distance of each listed reader to one consensus mask on the box. */
         double[] meanSignedMm(boolean[] consensus, int[] readerIdx) {
             return meanSignedMm(consensus, readerIdx, Double.NaN, null);

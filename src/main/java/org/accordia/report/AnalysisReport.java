@@ -19,6 +19,7 @@ import org.accordia.consensus.ReaderSummary;
 import org.accordia.consensus.StapleOptions;
 import org.accordia.consensus.StapleResult;
 import org.accordia.shift.CaseToAdjudicate;
+import org.accordia.shift.CentreContrasts;
 import org.accordia.shift.GroupEffect;
 import org.accordia.shift.ReaderToRecalibrate;
 import org.accordia.shift.ShiftSettings;
@@ -297,7 +298,7 @@ public final class AnalysisReport {
         h.subsection("Centres to discuss");
         rows = new ArrayList<>();
         for (LabelResult l : r.labels()) {
-            List<GroupEffect> effects = new ArrayList<>(l.shift().centreEffects());
+            List<GroupEffect> effects = new ArrayList<>(CentreContrasts.effects(l.shift().centreContrasts()));
             effects.sort(Comparator.comparingDouble((GroupEffect e) -> Double.isNaN(e.signedSurfaceMm())
                 ? 0 : -Math.abs(e.signedSurfaceMm())).thenComparing(GroupEffect::group));
             Map<String, String> flags = flagsOf(l);
@@ -312,9 +313,12 @@ public final class AnalysisReport {
         if (rows.isEmpty()) {
             h.paragraph("No centre's effect reaches the minimum shift.");
         } else {
-            h.paragraph("Largest effect first. Each centre is compared with the consensus of the other centres "
-                + "(95% case-bootstrap intervals in brackets); positive distances mean the centre draws outside "
-                + "(wider), negative inside.");
+            h.paragraph("Largest effect first. Each centre's effect is its readers' mean signed surface distance to "
+                + "a common reference (the consensus of all readers) minus the mean of the other centres' (95% "
+                + "intervals with readers and cases both random in brackets); positive distances mean the centre "
+                + "draws outside (wider), negative inside. A centre is flagged only when its own test against the "
+                + "other centres' readers rejects (Holm-adjusted across centres) and its interval passes the "
+                + "minimum.");
             h.table(null, List.of("Structure", "Centre", "Flag", "Effect"), rows, null);
             for (LabelResult l : r.labels()) {
                 for (String n : l.centreNotes()) {
@@ -357,7 +361,7 @@ public final class AnalysisReport {
         }
         h.section("Centre effects");
         for (LabelResult l : r.labels()) {
-            List<GroupEffect> e = l.shift().centreEffects();
+            List<GroupEffect> e = CentreContrasts.effects(l.shift().centreContrasts());
             if (e.isEmpty()) {
                 // one centre (or none comparable): no centre has other centres to be compared with
                 h.paragraph("No centre effect for " + l.name() + ": a centre is compared with the other centres' "
@@ -368,19 +372,22 @@ public final class AnalysisReport {
             h.figure(Charts.intervalPlot(g, e.stream().mapToDouble(GroupEffect::signedSurfaceMm).toArray(),
                     e.stream().mapToDouble(GroupEffect::signedSurfaceLoMm).toArray(),
                     e.stream().mapToDouble(GroupEffect::signedSurfaceHiMm).toArray(),
-                    "Signed surface distance to the other centres' consensus (mm)", 0, s.minimumShiftMm(),
-                    String.format(Locale.ROOT, "95%% case-bootstrap percentile intervals (%d resamples)", s.bootstrapResamples()), "Centre margin, " + l.name(), WIDTH, 120 + 50 * g.size()),
-                String.format(Locale.ROOT, "Mean signed surface distance of each centre's readers to the consensus of "
-                    + "the other centres, with 95%% case-bootstrap intervals; positive = wider. Shaded: ±%s mm, the "
-                    + "smallest shift that matters.", Numbers.format(s.minimumShiftMm())),
+                    "Centre effect: signed surface distance minus the other centres' (mm)", 0, s.minimumShiftMm(),
+                    "95% intervals, readers and cases random", "Centre margin, " + l.name(), WIDTH, 120 + 50 * g.size()),
+                String.format(Locale.ROOT, "Each centre's mean signed surface distance to a common reference (the "
+                    + "consensus of all readers) minus the mean of the other centres', with 95%% intervals that count "
+                    + "readers and cases as random; positive = wider. When one centre draws wider, the others show its "
+                    + "mirror (about −Δ/(G−1)); the flag rests on each centre's own test. Shaded: ±%s mm, the smallest "
+                    + "shift that matters.", Numbers.format(s.minimumShiftMm())),
                 "Forest plot of centre margin shifts for " + l.name());
             h.figure(Charts.intervalPlot(g, e.stream().mapToDouble(GroupEffect::volumeRatio).toArray(),
                     e.stream().mapToDouble(GroupEffect::volumeRatioLo).toArray(),
                     e.stream().mapToDouble(GroupEffect::volumeRatioHi).toArray(),
-                    "Volume ratio to the other centres' consensus (1 = same)", 1, s.minimumVolumeShiftPercent() / 100,
-                    String.format(Locale.ROOT, "95%% case-bootstrap percentile intervals (%d resamples)", s.bootstrapResamples()), "Centre volume, " + l.name(), WIDTH, 120 + 50 * g.size()),
-                String.format(Locale.ROOT, "Geometric-mean volume ratio of each centre's readers to the other centres' "
-                    + "consensus, with 95%% case-bootstrap percentile intervals. Shaded: ±%s%%, the smallest volume shift that matters.",
+                    "Centre volume effect: ratio to the other centres' (1 = same)", 1, s.minimumVolumeShiftPercent() / 100,
+                    "95% intervals, readers and cases random", "Centre volume, " + l.name(), WIDTH, 120 + 50 * g.size()),
+                String.format(Locale.ROOT, "Geometric-mean volume ratio of each centre's readers to the common "
+                    + "reference divided by the other centres' (the same contrast on the log scale), with 95%% "
+                    + "intervals. Shaded: ±%s%%, the smallest volume shift that matters.",
                     Numbers.format(s.minimumVolumeShiftPercent())),
                 "Forest plot of centre volume ratios for " + l.name());
         }
@@ -419,8 +426,9 @@ public final class AnalysisReport {
         h.section("Where the disagreement lies");
         List<String> cats = new ArrayList<>();
         List<double[]> vals = new ArrayList<>();
-        List<String> comps = List.of(VarianceComponents.CASE, VarianceComponents.CENTRE, VarianceComponents.READER,
-            VarianceComponents.RESIDUAL);
+        // the case component is left out: every reader is measured against a consensus of the same case, so
+        // whatever the case shares with all its readers cancels and that component is about 0 by construction
+        List<String> comps = List.of(VarianceComponents.CENTRE, VarianceComponents.READER, VarianceComponents.RESIDUAL);
         for (LabelResult l : r.labels()) {
             VarianceComponents.Result vc = l.shift().varianceComponents();
             if (vc == null) {
@@ -436,12 +444,14 @@ public final class AnalysisReport {
             vals.add(v);
         }
         if (!cats.isEmpty()) {
-            h.figure(Charts.stackedShares(cats, List.of("case", "centre", "reader within centre", "residual"),
+            h.figure(Charts.stackedShares(cats, List.of("centre", "reader within centre", "residual"),
                     vals.toArray(new double[0][]), "Variance components of the signed surface distance", WIDTH,
                     110 + 60 * cats.size()),
-                "Shares of the variance of each reader's signed surface distance (against the other centres' "
-                    + "consensus) taken by cases, centres, readers within centres and the rest (REML fit). A large "
-                    + "centre share means the centres draw differently.",
+                "Shares of the variance of each reader's signed surface distance (against the consensus of all "
+                    + "readers of the case) taken by centres, readers within centres and the rest (REML fit). A large "
+                    + "centre share means the centres draw differently. The case component is not shown: each reader "
+                    + "is measured against a consensus of the same case, so what a case shares with all its readers "
+                    + "cancels and that component is about 0 by construction (it stays in summary.json).",
                 "Stacked bars of variance components per structure");
         }
         List<List<String>> iccRows = new ArrayList<>();
@@ -657,8 +667,10 @@ public final class AnalysisReport {
             + "percentile intervals (Efron & Tibshirani 1993). Variance components: REML fit of case, centre, "
             + "reader-within-centre and residual variance of the signed surface distance (Patterson & Thompson "
             + "1971), intervals by parametric bootstrap. ICC of volumes on complete cases (Shrout & Fleiss 1979). "
-            + "A centre is flagged only when the test is significant AND its interval lies entirely beyond the "
-            + "minimum shift (%s mm or %s%% volume).", r.labels().isEmpty() ? "" : r.labels().get(0).input().distanceName(),
+            + "Centre effects against a common reference (the consensus of all readers), with intervals from the "
+            + "variance components (readers and cases random). A centre is flagged only when its own "
+            + "centre-vs-rest permutation test rejects (Holm's step-down across centres, a rejected centre leaving "
+            + "the rest; Holm 1979) AND its interval lies entirely beyond the minimum shift (%s mm or %s%% volume).", r.labels().isEmpty() ? "" : r.labels().get(0).input().distanceName(),
             s.exactLimit(), s.permutations(), Numbers.format(s.alpha()), s.bootstrapResamples(),
             Numbers.format(s.minimumShiftMm()), Numbers.format(s.minimumVolumeShiftPercent())));
         h.paragraph("Decision rules, in order: empty-centre or empty-reader (review; no pooling verdict while a "

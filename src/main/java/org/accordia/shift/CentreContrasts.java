@@ -14,8 +14,10 @@ import org.apache.commons.math3.distribution.TDistribution;
  *
  * <p><b>Estimand.</b> Δ_c = μ_c − mean_{d≠c} μ_d, where μ_c is the population mean (over centre c's
  * readers, as random, and over cases) of a reader's signed surface distance in mm (positive =
- * outside) from ONE common reference surface per case (the consensus of all readers). A common
- * reference moves every reader of a case alike, so it cancels from Δ_c: Δ_c is the same whichever
+ * outside) from ONE common reference surface per case (the consensus of all readers), measured as
+ * the antisymmetric border offset ½ (d(reader → reference) − d(reference → reader)) so that it
+ * changes sign exactly when two surfaces swap (one directed distance does not, on a voxel lattice).
+ * A common reference moves every reader of a case alike, so it cancels from Δ_c: Δ_c is the same whichever
  * common reference is used, and equals the centre's offset against the true boundary minus the
  * other centres' mean offset. The same contrast of the mean log volume ratio gives the volume
  * effect exp(Δ). Note: Δ_c keeps the mirror of another centre's shift by definition (one of G

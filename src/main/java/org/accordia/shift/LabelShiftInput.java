@@ -15,9 +15,9 @@ import java.util.Map;
  *                             the other centres' consensus (centre effects)
  * @param readerMeasures       per reader and case: the same against the other readers' consensus
  *                             (reader recalibration); may be the same list as centreMeasures
- * @param commonMeasures       per reader and case: the same against ONE common reference per case
- *                             (the consensus of all readers): the centre effects Δ_c the flag
- *                             judges ({@link CentreContrasts})
+ * @param commonMeasures       per reader and case: the antisymmetric border offset (mm) and volume
+ *                             ratio against ONE common reference per case (the consensus of all
+ *                             readers): the centre effects Δ_c the flag judges ({@link CentreContrasts})
  * @param varianceMeasureName  name and unit of the variance-component measure, e.g. "signed surface distance (mm)"
  * @param varianceMeasures     per reader and case: the measure for the variance-component model
  *                             (empty: no variance components)

@@ -211,7 +211,7 @@ class CentreVsRestTest {
      * rejected centre's readers leave before the next step (C(8, 2) = 28 splits, then C(6, 2) = 15).
      */
     @ParameterizedTest(name = "seed {0}")
-    @ValueSource(ints = {1, 2, 3, 4})
+    @ValueSource(ints = {1, 2})
     void sequentialStepsAgreeWithBruteForce(int seed) {
         List<String> readers = new ArrayList<>();
         Map<String, String> centreOf = ReaderPermutationTest.design(4, 2, readers);
