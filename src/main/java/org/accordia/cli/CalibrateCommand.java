@@ -33,7 +33,8 @@ import picocli.CommandLine.Option;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = {
-        "Measures how often the centre flag fires on simulated studies, with and without planted effects.",
+        "Measures how often the analysis flags centres, names readers and states design limits on simulated studies"
+            + " with and without planted effects.",
         "Simulates seeded studies in memory (no file is written) and runs the full analysis on each, "
             + "scenario by scenario: null, one centre wider or narrower, a local one-sided inclusion at one centre, "
             + "one wide reader, hard cases, 2, 4 and 6 centres, unequal rosters with a one-reader centre. Prints "
