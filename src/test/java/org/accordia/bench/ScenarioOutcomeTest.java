@@ -33,8 +33,10 @@ class ScenarioOutcomeTest {
             GroupEffect judged = l.shift().centreFindings().of(f.centre()).effect();
             assertEquals((int) Math.signum(judged.signedSurfaceMm()), f.direction(), f.centre());
         }
-        assertEquals(l.shift().centreEffects().size(), o.centreEffects().size());
-        for (GroupEffect e : l.shift().centreEffects()) {
+        // the adapter reports the judged effect Δ_c of each centre (CentreContrasts)
+        List<GroupEffect> judgedEffects = org.accordia.shift.CentreContrasts.effects(l.shift().centreContrasts());
+        assertEquals(judgedEffects.size(), o.centreEffects().size());
+        for (GroupEffect e : judgedEffects) {
             ScenarioOutcome.CentreEstimate c = o.effectOf(e.group());
             assertEquals(e.signedSurfaceMm(), c.estimateMm(), 0.0);
             assertEquals(e.signedSurfaceLoMm(), c.loMm(), 0.0);
