@@ -362,7 +362,7 @@ public final class AnalysisReport {
         h.section("Centre effects");
         for (LabelResult l : r.labels()) {
             List<GroupEffect> e = CentreContrasts.effects(l.shift().centreContrasts());
-            if (e.isEmpty()) {
+            if (e.size() < 2) {
                 // one centre (or none comparable): no centre has other centres to be compared with
                 h.paragraph("No centre effect for " + l.name() + ": a centre is compared with the other centres' "
                     + "consensus, and this study has fewer than two centres with readers.");
