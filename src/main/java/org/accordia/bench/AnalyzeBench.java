@@ -9,7 +9,6 @@ import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
-import org.accordia.analysis.CaseSource;
 import org.accordia.analysis.StudyAnalysis;
 import org.accordia.analysis.StudyResult;
 import org.accordia.io.InputException;
@@ -26,10 +25,11 @@ import org.accordia.study.Study;
  * End-to-end timing of the library pipeline on a study folder against the time the same JVM
  * needs only to read and inflate every mask of the study.
  *
- * <p>End-to-end = what {@code accordia analyze} does, through the library: input checksums,
- * {@link StudyAnalysis#run} over {@link CaseSource#ofStudy} with {@code threads} cases in parallel
- * and {@link ConsensusFiles} writing each case's consensus files, then {@link AnalysisReport#write}
- * (report, summary, tables), all into a fresh temporary folder. Read-only = every mask of every case read through
+ * <p>End-to-end = what {@code accordia analyze} does, through the same run entry point
+ * ({@link StudyRun#analyze}): input checksums, {@link StudyAnalysis#run} over the study's cases
+ * with {@code threads} cases in parallel and {@link ConsensusFiles} writing each case's consensus
+ * files, then {@link AnalysisReport#write} (report, summary, tables), all into a fresh temporary
+ * folder. Read-only = every mask of every case read through
  * {@link Volumes#readLabels} with the same number of threads (cases in parallel). Rounds alternate
  * the two (read first) after {@code warmups} discarded rounds, each timed part after a full
  * collection ({@code System.gc()}); medians are reported.

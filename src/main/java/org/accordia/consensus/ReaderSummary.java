@@ -7,6 +7,7 @@ import java.util.List;
 import java.util.SplittableRandom;
 import java.util.TreeMap;
 import java.util.function.ToDoubleFunction;
+import org.accordia.stats.Quantiles;
 
 /**
  * One reader's performance across cases, for one structure and one reference, with 95%
@@ -135,13 +136,6 @@ public record ReaderSummary(String label, String reader, String centre, String r
 
     /** Type-7 percentile of the non-NaN values (NaN when none). */
     static double percentile(double[] v, double prob) {
-        double[] x = Arrays.stream(v).filter(d -> !Double.isNaN(d)).sorted().toArray();
-        if (x.length == 0) {
-            return Double.NaN;
-        }
-        double h = (x.length - 1) * prob;
-        int lo = (int) Math.floor(h);
-        int hi = Math.min(lo + 1, x.length - 1);
-        return x[lo] + (h - lo) * (x[hi] - x[lo]);
+        return Quantiles.type7Sorted(Arrays.stream(v).filter(d -> !Double.isNaN(d)).sorted().toArray(), prob);
     }
 }

@@ -9,6 +9,6 @@
  * {@code StapleResult}, {@code MultiLabelStapleResult}, {@code MajorityVote},
  * {@code CaseReferences}, {@code ReaderPerformance}, {@code ReaderSummary},
  * {@code MissedComponents}, {@code ConsensusOutputs}. The histogram and tie-rule helpers are
- * implementation. Depends on io, study, grid and agreement.
+ * implementation. Depends on io, study, grid, stats and agreement.
  */
 package org.accordia.consensus;

@@ -463,7 +463,7 @@ public final class Charts {
     /**
      * As {@link #scatter(List, List, double[], double[], String, String, String, int, int)}; with
      * {@code proportions} both axes are proportions (e.g. sensitivity and specificity): ticks at a
-     * round step (0.01, 0.02, 0.05, 0.1, 0.2 or 0.25, at most about six per axis) and only within
+     * round step (1, 2 or 5 thousandths or hundredths, 0.1, 0.2 or 0.25; at most about six per axis) and only within
      * [0, 1]; the plotted range stays within [0, 1] except for a margin that keeps points and their
      * labels at 1 inside the picture.
      */
@@ -532,7 +532,7 @@ public final class Charts {
 
     /** The step of the ticks on a proportion axis spanning {@code span}: about six ticks at most. */
     static double proportionTickUnit(double span) {
-        for (double u : new double[] {0.01, 0.02, 0.05, 0.1, 0.2, 0.25}) {
+        for (double u : new double[] {0.001, 0.002, 0.005, 0.01, 0.02, 0.05, 0.1, 0.2, 0.25}) {
             if (span / u <= 6) {
                 return u;
             }
@@ -557,7 +557,7 @@ public final class Charts {
             min = 0;
             max = 1;
         }
-        double unit = proportionTickUnit(Math.max(max - min, 0.02));
+        double unit = proportionTickUnit(Math.max(max - min, 0.01));
         double lower = Math.max(0, Math.floor((min - unit / 2) / unit) * unit);
         double upper = Math.min(1, Math.ceil((max + unit / 4) / unit) * unit);
         if (upper - lower < unit) {
@@ -567,7 +567,8 @@ public final class Charts {
         a.setAutoRange(false);
         a.setRange(lower > 0 ? lower : -room * span / 3, upper + (upper >= 1 ? room * span : 0));
         a.setTickUnit(new org.jfree.chart.axis.NumberTickUnit(unit,
-            new DecimalFormat(unit < 0.1 ? "0.00" : "0.0", DecimalFormatSymbols.getInstance(Locale.ROOT))));
+            new DecimalFormat(unit < 0.01 ? "0.000" : unit < 0.1 ? "0.00" : "0.0",
+                DecimalFormatSymbols.getInstance(Locale.ROOT))));
     }
 
     /** A number axis for a proportion: no tick is drawn outside [0, 1], whatever the range's margins. */

@@ -82,8 +82,8 @@ class ChartsTest {
                 new java.awt.geom.Rectangle2D.Double(0, 0, 400, 400), org.jfree.chart.ui.RectangleEdge.LEFT);
             g.dispose();
             double unit = axis.getTickUnit().getSize();
-            assertTrue(List.of(0.01, 0.02, 0.05, 0.1, 0.2, 0.25).contains(unit), "unit " + unit);
-            assertTrue(ticks.size() >= 2 && ticks.size() <= 8, ticks.size() + " ticks");
+            assertTrue(List.of(0.001, 0.002, 0.005, 0.01, 0.02, 0.05, 0.1, 0.2, 0.25).contains(unit), "unit " + unit);
+            assertTrue(ticks.size() >= 3 && ticks.size() <= 8, ticks.size() + " ticks");
             for (Object t : ticks) {
                 double v = ((org.jfree.chart.axis.NumberTick) t).getValue();
                 assertTrue(v >= -1e-9 && v <= 1 + 1e-9, "tick outside [0, 1]: " + v);
