@@ -10,14 +10,19 @@ shift || true
 targets=("$@")
 if [ ${#targets[@]} -eq 0 ]; then
   targets=(NiftiFuzzTest#read NrrdFuzzTest#attached NrrdFuzzTest#detached MetaImageFuzzTest#local
-           MetaImageFuzzTest#detached ManifestFuzzTest#load ProtocolFuzzTest#load)
+           MetaImageFuzzTest#detached TiffFuzzTest#read ManifestFuzzTest#load ProtocolFuzzTest#load)
 fi
 mkdir -p target/fuzz-logs
 for t in "${targets[@]}"; do
   log="target/fuzz-logs/${t/\#/-}.log"
+  instrument="${JAZZER_INSTRUMENT:-}"
+  # the TIFF target exercises ImageJ's decoder as much as our own code: instrument both by default
+  if [ -z "$instrument" ] && [ "${t%%#*}" = TiffFuzzTest ]; then
+    instrument='org.accordia.**,ij.io.**'
+  fi
   echo "== $t for ${seconds}s -> $log"
   JAZZER_FUZZ=1 mvn -o -B test -Dtest="$t" -Dsurefire.failIfNoSpecifiedTests=false \
     -Djazzer.hooks=true -Djazzer.internal.arg.0=fuzz -Djazzer.internal.arg.1=-max_total_time="$seconds" \
-    ${JAZZER_INSTRUMENT:+-Djazzer.instrument="$JAZZER_INSTRUMENT"} >"$log" 2>&1
+    ${instrument:+-Djazzer.instrument="$instrument"} >"$log" 2>&1
   echo "   exit $?; $(grep -E '^#[0-9]+[[:space:]]+DONE' "$log" | tail -1)"
 done

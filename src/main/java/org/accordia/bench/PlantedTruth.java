@@ -23,10 +23,11 @@ import org.accordia.demo.DemoSpec;
  * without a plant has μ_c = 0 exactly (identical masks). One wide reader is an individual deviation,
  * not a centre's: it leaves μ of its centre at 0.
  *
- * <p>On the calibration grids a +1.5 mm margin measures about +1.35 mm: the border voxels of the
- * grown shape lie on the voxel lattice, and distances are taken between voxel centres. One direction
- * alone is not antisymmetric there (+1.45 mm from the grown border inwards, −1.26 mm from the
- * unplanted border outwards), which is why both directions are averaged, here and in the analysis.
+ * <p>On the calibration grid (64 × 64 × 32 at 1 × 1 × 2 mm) a +1.5 mm margin measures about
+ * +1.36 mm and −1.5 mm about −1.39 mm: the border voxels lie on the voxel lattice, and distances
+ * are taken between voxel centres. One direction alone is not antisymmetric there (+1.45 mm from
+ * the grown border inwards, −1.26 mm from the unplanted border outwards; −1.24 and −1.49 for a
+ * narrower margin), which is why both directions are averaged, here and in the analysis.
  */
 public final class PlantedTruth {
     private PlantedTruth() {

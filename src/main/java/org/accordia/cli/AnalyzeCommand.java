@@ -85,9 +85,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        if (threads < 1) {
-            throw new CommandLine.ParameterException(spec.commandLine(), "--threads must be at least 1");
-        }
+        ThreadCount.check(spec.commandLine(), threads);
         read.check(spec.commandLine());
         Verdict failLevel = null;
         if (failOn != null) {

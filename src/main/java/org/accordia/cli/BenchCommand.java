@@ -107,7 +107,8 @@ public final class BenchCommand implements Callable<Integer> {
         if (!childXmx.matches("[0-9]+[kKmMgG]?")) {
             throw new CommandLine.ParameterException(spec.commandLine(), "--child-xmx must look like 1536m or 2g");
         }
-        if (threads < 1 || rounds < 1 || warmup < 0 || cases < 1 || analyzeCases < 1 || analyzeRounds < 1) {
+        ThreadCount.check(spec.commandLine(), threads);
+        if (rounds < 1 || warmup < 0 || cases < 1 || analyzeCases < 1 || analyzeRounds < 1) {
             throw new CommandLine.ParameterException(spec.commandLine(),
                 "--threads, --rounds and --cases must be at least 1, --warmup at least 0");
         }

@@ -107,9 +107,10 @@ public final class CalibrateCommand implements Callable<Integer> {
         if (size.length != 3 || spacing.length != 3) {
             throw new CommandLine.ParameterException(spec.commandLine(), "--size and --spacing need three values X,Y,Z");
         }
-        if (runs < 0 || threads < 1 || cases < 2 || hardCases < 0 || hardCases > cases) {
+        ThreadCount.check(spec.commandLine(), threads);
+        if (runs < 0 || cases < 2 || hardCases < 0 || hardCases > cases) {
             throw new CommandLine.ParameterException(spec.commandLine(),
-                "--runs must not be negative, --threads must be at least 1, --cases at least 2, --hard-cases in 0..cases");
+                "--runs must not be negative, --cases at least 2, --hard-cases in 0..cases");
         }
         Calibration.Settings settings;
         SimulatedStudies runner;

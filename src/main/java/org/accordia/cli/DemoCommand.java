@@ -70,9 +70,7 @@ public final class DemoCommand implements Callable<Integer> {
         if (spacing.length != 3) {
             throw new CommandLine.ParameterException(spec.commandLine(), "--spacing needs three values X,Y,Z");
         }
-        if (threads < 1) {
-            throw new CommandLine.ParameterException(spec.commandLine(), "--threads must be at least 1");
-        }
+        ThreadCount.check(spec.commandLine(), threads);
         DemoSpec d;
         try {
             DemoSpec base = DemoSpec.defaults().withSeed(seed).withRoster(cases, centres, readersPerCentre)

@@ -67,9 +67,7 @@ public final class InspectCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        if (threads < 1) {
-            throw new CommandLine.ParameterException(spec.commandLine(), "--threads must be at least 1");
-        }
+        ThreadCount.check(spec.commandLine(), threads);
         read.check(spec.commandLine());
         PreparedStudy prepared = StudyRun.prepare(read.request(study, protocolFile));
         InspectionReport report = StudyRun.inspect(prepared, threads);
@@ -107,7 +105,7 @@ public final class InspectCommand implements Callable<Integer> {
         if (!r.cases().isEmpty()) {
             List<String[]> rows = new ArrayList<>();
             rows.add(new String[] {"case", "readers", "grid (voxels)", "spacing (mm)", "image", "labels"});
-            for (InspectionReport.CaseSummary c : r.cases()) {
+            for (InspectionReport.CaseSummary c : r.cases().subList(0, Math.min(r.cases().size(), InspectionReport.LIST_CAP))) {
                 Geometry g = c.geometry();
                 rows.add(new String[] {
                     c.caseId(),
@@ -120,6 +118,7 @@ public final class InspectCommand implements Callable<Integer> {
                 });
             }
             table(b, rows);
+            more(b, r.cases().size(), "cases");
         }
         b.append('\n');
         b.append("Labels seen (voxels summed over all readable masks):\n");
@@ -139,7 +138,7 @@ public final class InspectCommand implements Callable<Integer> {
                 s.labels().stream().map(String::valueOf).collect(Collectors.joining(",")), num(s.toleranceMm())));
         }
         b.append('\n');
-        b.append("Missing masks (").append(r.missing().size()).append("):");
+        b.append("Missing masks (").append(r.missingCount()).append("):");
         if (r.missing().isEmpty()) {
             b.append(" none\n");
         } else {
@@ -147,14 +146,16 @@ public final class InspectCommand implements Callable<Integer> {
             for (CaseReader m : r.missing()) {
                 b.append("  ").append(m.caseId()).append(": ").append(m.reader().label()).append('\n');
             }
+            more(b, r.missingCount(), "missing masks");
         }
         b.append('\n');
         b.append(String.format(Locale.ROOT, "Problems: %d error(s), %d warning(s), %d note(s)%n",
             r.count(StudyProblem.Severity.ERROR), r.count(StudyProblem.Severity.WARNING),
             r.count(StudyProblem.Severity.NOTE)));
-        for (StudyProblem p : r.problems()) {
+        for (StudyProblem p : r.problems().subList(0, Math.min(r.problems().size(), InspectionReport.LIST_CAP))) {
             b.append("  ").append(p.line()).append('\n');
         }
+        more(b, r.problems().size(), "problems");
         b.append('\n');
         b.append(r.analysable() ? "Result: the study can be analysed.\n" : "Result: the study cannot be analysed as it is.\n");
         return b.toString();
@@ -177,6 +178,13 @@ public final class InspectCommand implements Callable<Integer> {
             b.append("  warning: ").append(DecisionWords.design(d, protocol.shift().alpha())).append('\n');
         }
         return b.toString();
+    }
+
+    /** "  ... and N more <what>" when a list of {@code total} was cut at {@link InspectionReport#LIST_CAP}. */
+    private static void more(StringBuilder b, long total, String what) {
+        if (total > InspectionReport.LIST_CAP) {
+            b.append(String.format(Locale.ROOT, "  ... and %d more %s (%d in all)%n", total - InspectionReport.LIST_CAP, what, total));
+        }
     }
 
     private static String spacing(Geometry g) {

@@ -3,6 +3,9 @@ package org.accordia.cli;
 import java.io.PrintWriter;
 import java.util.Arrays;
 import org.accordia.io.InputException;
+import org.accordia.io.Messages;
+import org.accordia.report.OutputFolder;
+import java.io.IOException;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
@@ -59,9 +62,10 @@ public final class Main implements java.util.concurrent.Callable<Integer> {
         CommandLine cl = commandLine();
         cl.setOut(out);
         cl.setErr(err);
-        cl.setExitCodeExceptionMapper(t -> t instanceof InputException ? ExitCodes.INPUT : ExitCodes.INTERNAL);
+        cl.setExitCodeExceptionMapper(t -> t instanceof InputException || environmentProblem(t) != null
+            ? ExitCodes.INPUT : ExitCodes.INTERNAL);
         cl.setParameterExceptionHandler((ex, a) -> {
-            err.println("accordia: " + ex.getMessage().replace('\n', ' '));
+            err.println("accordia: " + Messages.oneLine(ex.getMessage()));
             // a mistyped option or command: the nearest names, then where the help is
             String near = suggestion(ex);
             if (near != null) {
@@ -75,14 +79,23 @@ public final class Main implements java.util.concurrent.Callable<Integer> {
         });
         cl.setExecutionExceptionHandler((ex, commandLine, parseResult) -> {
             if (ex instanceof InputException ie) {
-                err.println("accordia: " + ie.getMessage());
+                err.println("accordia: " + Messages.oneLine(ie.getMessage()));
                 if (debug) {
                     ie.printStackTrace(err);
                 }
                 err.flush();
                 return ExitCodes.INPUT;
             }
-            err.println("accordia: internal error: " + ex + (debug ? "" : " (rerun with --debug for details)"));
+            String environment = environmentProblem(ex);
+            if (environment != null) {
+                err.println("accordia: " + Messages.oneLine(environment));
+                if (debug) {
+                    ex.printStackTrace(err);
+                }
+                err.flush();
+                return ExitCodes.INPUT;
+            }
+            err.println("accordia: internal error: " + Messages.oneLine(String.valueOf(ex)) + (debug ? "" : " (rerun with --debug for details)"));
             if (debug) {
                 ex.printStackTrace(err);
             }
@@ -105,6 +118,33 @@ public final class Main implements java.util.concurrent.Callable<Integer> {
         out.flush();
         err.flush();
         return code;
+    }
+
+    /**
+     * The one place where failures of the environment become one line and exit code 2 instead of
+     * an internal error: an output that could not be written (full disk, no permission, a path too
+     * long: {@link OutputFolder.WriteFailure} names the output folder), any other file-system
+     * error (names its file and the reason), or another I/O error. Looks through wrapping
+     * exceptions (worker threads wrap what they throw). Returns {@code null} for anything else.
+     */
+    static String environmentProblem(Throwable ex) {
+        IOException io = null;
+        for (Throwable t = ex; t != null; t = t.getCause() == t ? null : t.getCause()) {
+            if (t instanceof OutputFolder.WriteFailure w) {
+                return w.getMessage();
+            }
+            if (t instanceof IOException e && io == null) {
+                io = e;
+            }
+        }
+        if (io instanceof java.nio.file.FileSystemException fs) {
+            return (fs.getFile() == null ? "" : fs.getFile() + ": ") + (fs.getReason() != null ? fs.getReason()
+                : fs.getClass().getSimpleName()) + (fs.getOtherFile() == null ? "" : " (" + fs.getOtherFile() + ")");
+        }
+        if (io != null) {
+            return "input/output error: " + (io.getMessage() == null ? io.getClass().getSimpleName() : io.getMessage());
+        }
+        return null;
     }
 
     /**

@@ -34,7 +34,7 @@ public class InputException extends Exception {
     }
 
     private static String format(Path file, String problem) {
-        String oneLine = problem == null ? "invalid input" : problem.replace('\n', ' ').replace('\r', ' ');
-        return file == null ? oneLine : file + ": " + oneLine;
+        String what = problem == null ? "invalid input" : problem;
+        return Messages.oneLine(file == null ? what : file + ": " + what);
     }
 }

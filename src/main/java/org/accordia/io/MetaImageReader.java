@@ -57,6 +57,12 @@ public final class MetaImageReader implements VolumeReader {
         return readHeader(file, limits).geometry();
     }
 
+    @Override
+    public long bytesRead(Path file, ReadLimits limits) throws InputException {
+        NrrdReader.Header h = readHeader(file, limits);
+        return Payload.bytesRead(file, h.layout(), h.geometry().voxelCount());
+    }
+
     static SampleType sampleType(String elementType) {
         return switch (elementType.trim().toUpperCase(Locale.ROOT)) {
             case "MET_CHAR" -> SampleType.INT8;
@@ -195,9 +201,6 @@ public final class MetaImageReader implements VolumeReader {
                 throw new InputException(file, "ElementDataFile \"" + clip(dataName) + "\": lists and file patterns are not supported");
             }
             dataFile = TextHeaders.dataFile(file, dataName, limits);
-            if (!Files.isRegularFile(dataFile)) {
-                throw new InputException(file, "data file not found: " + dataFile);
-            }
             long headerSize = keys.containsKey("headersize") ? TextHeaders.parseLong(file, "HeaderSize", keys.get("headersize")) : 0;
             if (headerSize < -1) {
                 throw new InputException(file, "HeaderSize " + headerSize + " is below -1");

@@ -64,12 +64,19 @@ public final class NiftiReader implements VolumeReader {
         return readHeader(file, limits).geometry;
     }
 
+    @Override
+    public long bytesRead(Path file, ReadLimits limits) throws InputException {
+        Header h = readHeader(file, limits);
+        return Payload.bytesRead(file, h.layout, h.geometry.voxelCount());
+    }
+
     /** What the header says, checked. */
     record Header(int version, Geometry geometry, Payload.Layout layout, boolean scaled, double slope, double inter,
                   int datatype, int sformCode, int qformCode, double unitMm) {
     }
 
     static Header readHeader(Path file, ReadLimits limits) throws InputException {
+        InputFiles.requireRegular(file);
         long size = Payload.fileSize(file, file);
         byte[] raw = new byte[NIFTI2_HEADER];
         boolean gzip;

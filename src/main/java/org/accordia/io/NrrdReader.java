@@ -56,6 +56,12 @@ public final class NrrdReader implements VolumeReader {
         return readHeader(file, limits).geometry();
     }
 
+    @Override
+    public long bytesRead(Path file, ReadLimits limits) throws InputException {
+        Header h = readHeader(file, limits);
+        return Payload.bytesRead(file, h.layout(), h.geometry().voxelCount());
+    }
+
     record Header(Geometry geometry, Payload.Layout layout) {
     }
 
@@ -183,9 +189,6 @@ public final class NrrdReader implements VolumeReader {
             }
             dataFile = TextHeaders.dataFile(file, name, limits);
             offset = 0;
-            if (!Files.isRegularFile(dataFile)) {
-                throw new InputException(file, "data file not found: " + dataFile);
-            }
         }
         offset = skipLines(file, dataFile, offset, lineSkip);
         Payload.Layout layout;

@@ -70,6 +70,35 @@ final class Payload {
     }
 
     /**
+     * How many leading bytes of {@code file} a read of this payload uses: for a raw payload in the
+     * file, up to the end of the payload (bytes after it are never read); for a compressed payload,
+     * the compressed stream, bounded by the declared bytes plus 0.1 % and 1 MiB (deflate's stored
+     * blocks add 5 bytes per 64 KiB; the rest covers gzip headers); for a header whose payload
+     * lies in another file, the header text read ({@link TextHeaders#MAX_HEADER_BYTES} at most).
+     */
+    static long bytesRead(Path file, Layout l, long voxels) throws InputException {
+        long size = fileSize(file, file);
+        if (!l.dataFile().equals(file) && !l.dataFile().equals(realOrSelf(file))) {
+            return Math.min(size, TextHeaders.MAX_HEADER_BYTES);
+        }
+        if (l.compression() == Compression.RAW && l.dataAtEnd()) {
+            return size;
+        }
+        long payload = voxels * l.type().bytes();
+        long end = l.compression() == Compression.RAW ? l.fileOffset() + payload
+            : l.fileOffset() + l.skipDecompressed() + payload + payload / 1000 + (1 << 20);
+        return Math.min(size, Math.max(0, end));
+    }
+
+    private static Path realOrSelf(Path file) {
+        try {
+            return file.toRealPath();
+        } catch (IOException e) {
+            return file;
+        }
+    }
+
+    /**
      * The product of the declared dimensions, refused when any is not positive, when the product
      * overflows 64 bits, or when it exceeds the limit.
      */

@@ -24,6 +24,7 @@ final class TextHeaders {
 
     /** The first bytes of a file (at most {@link #MAX_HEADER_BYTES}). */
     static byte[] head(Path file) throws InputException {
+        InputFiles.requireRegular(file);
         try (InputStream in = Files.newInputStream(file)) {
             long size = Files.size(file);
             byte[] buf = new byte[(int) Math.min(size, MAX_HEADER_BYTES)];
@@ -56,7 +57,9 @@ final class TextHeaders {
 
     /**
      * The data file named by a detached header, resolved against the header's folder; refused when
-     * it leaves that folder unless the limits allow it.
+     * it leaves that folder (by its name, or through a symbolic link: the containment is checked
+     * on the real path) unless the limits allow it, and refused unless it is a regular file (a
+     * named pipe, device, folder, dangling or looping link is never opened). Returns the real path.
      */
     static Path dataFile(Path header, String name, ReadLimits limits) throws InputException {
         Path folder = header.toAbsolutePath().normalize().getParent();
@@ -70,7 +73,7 @@ final class TextHeaders {
             throw new InputException(header, "data file \"" + name + "\" lies outside the header's folder"
                 + " (refused unless path escape is allowed)");
         }
-        return data;
+        return InputFiles.realInside(data, folder, limits.allowPathEscape(), header, "data file");
     }
 
     /**

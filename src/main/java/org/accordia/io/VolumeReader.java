@@ -27,4 +27,12 @@ public interface VolumeReader {
     default Geometry readGeometry(Path file, ReadLimits limits) throws InputException {
         return readImage(file, limits).geometry();
     }
+
+    /**
+     * How many leading bytes of {@code file} this reader reads: what an input checksum must cover
+     * and need not exceed. The default is the whole file.
+     */
+    default long bytesRead(Path file, ReadLimits limits) throws InputException {
+        return Payload.fileSize(file, file);
+    }
 }

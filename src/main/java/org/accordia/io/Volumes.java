@@ -1,6 +1,5 @@
 package org.accordia.io;
 
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
@@ -56,6 +55,11 @@ public final class Volumes {
         return require(file).readGeometry(file, limits);
     }
 
+    /** How many leading bytes of {@code file} its reader reads (see {@link VolumeReader#bytesRead}). */
+    public static long bytesRead(Path file, ReadLimits limits) throws InputException {
+        return require(file).bytesRead(file, limits);
+    }
+
     /** The file name without its volume extension (e.g. "case01" for "case01.nii.gz"). */
     public static String stem(Path file) {
         String name = file.getFileName().toString();
@@ -70,12 +74,7 @@ public final class Volumes {
     }
 
     private static VolumeReader require(Path file) throws InputException {
-        if (!Files.exists(file)) {
-            throw new InputException(file, "file not found");
-        }
-        if (!Files.isRegularFile(file)) {
-            throw new InputException(file, "not a regular file");
-        }
+        InputFiles.requireRegular(file); // before anything opens it: a FIFO or device would block or never end
         VolumeReader r = readerFor(file);
         if (r == null) {
             throw new InputException(file, "unrecognised volume format (expected .nii, .nii.gz, .nrrd, .nhdr, .mha, .mhd, .tif, .tiff or .png)");

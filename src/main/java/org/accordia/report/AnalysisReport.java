@@ -373,18 +373,20 @@ public final class AnalysisReport {
                     e.stream().mapToDouble(GroupEffect::signedSurfaceLoMm).toArray(),
                     e.stream().mapToDouble(GroupEffect::signedSurfaceHiMm).toArray(),
                     "Centre effect: signed surface distance minus the other centres' (mm)", 0, s.minimumShiftMm(),
-                    "95% intervals, readers and cases random", "Centre margin, " + l.name(), WIDTH, 120 + 50 * g.size()),
-                String.format(Locale.ROOT, "Each centre's mean signed surface distance to a common reference (the "
-                    + "consensus of all readers) minus the mean of the other centres', with 95%% intervals that count "
-                    + "readers and cases as random; positive = wider. When one centre draws wider, the others show its "
-                    + "mirror (about −Δ/(G−1)); the flag rests on each centre's own test. Shaded: ±%s mm, the smallest "
+                    "95% intervals, readers and cases random (model-based)", "Centre margin, " + l.name(), WIDTH,
+                    120 + 50 * g.size()),
+                String.format(Locale.ROOT, "Each centre's mean border offset to a common reference (the consensus of "
+                    + "all readers) minus the mean of the other centres', with 95%% intervals that count readers and "
+                    + "cases as random; positive = wider. When one centre draws wider, the others show its mirror "
+                    + "(about −Δ/(G−1)); the flag rests on each centre's own test. Shaded: ±%s mm, the smallest "
                     + "shift that matters.", Numbers.format(s.minimumShiftMm())),
                 "Forest plot of centre margin shifts for " + l.name());
             h.figure(Charts.intervalPlot(g, e.stream().mapToDouble(GroupEffect::volumeRatio).toArray(),
                     e.stream().mapToDouble(GroupEffect::volumeRatioLo).toArray(),
                     e.stream().mapToDouble(GroupEffect::volumeRatioHi).toArray(),
                     "Centre volume effect: ratio to the other centres' (1 = same)", 1, s.minimumVolumeShiftPercent() / 100,
-                    "95% intervals, readers and cases random", "Centre volume, " + l.name(), WIDTH, 120 + 50 * g.size()),
+                    "95% intervals, readers and cases random (model-based)", "Centre volume, " + l.name(), WIDTH,
+                    120 + 50 * g.size()),
                 String.format(Locale.ROOT, "Geometric-mean volume ratio of each centre's readers to the common "
                     + "reference divided by the other centres' (the same contrast on the log scale), with 95%% "
                     + "intervals. Shaded: ±%s%%, the smallest volume shift that matters.",

@@ -19,7 +19,8 @@ import org.apache.commons.csv.QuoteMode;
  * <p>CSV injection: a text cell (header or {@link CsvTable.TextCell}) that starts with {@code =},
  * {@code +}, {@code -}, {@code @}, a tab or a carriage return is prefixed with a single quote
  * {@code '}, as the OWASP "CSV Injection" page recommends, so that a spreadsheet shows it as text
- * instead of evaluating it. Number and integer cells are never altered ({@code -1.5} stays
+ * instead of evaluating it. Control characters other than tab, CR and LF are written as
+ * {@code \}{@code uXXXX} ({@link #escapeControls}). Number and integer cells are never altered ({@code -1.5} stays
  * {@code -1.5}): they are formatted by us and cannot carry a formula.
  */
 public final class CsvWriter {
@@ -37,7 +38,8 @@ public final class CsvWriter {
      * Neutralises a text cell against formula injection (OWASP): prefixes {@code '} when the text
      * starts with {@code = + - @}, tab or carriage return; returns any other text unchanged.
      */
-    public static String neutralise(String text) {
+    public static String neutralise(String raw) {
+        String text = escapeControls(raw);
         if (text.isEmpty()) {
             return text;
         }
@@ -46,6 +48,30 @@ public final class CsvWriter {
             return "'" + text;
         }
         return text;
+    }
+
+    /**
+     * Control characters other than tab, line feed and carriage return (which CSV quoting keeps
+     * intact) are written as a visible {@code \}{@code uXXXX}: a NUL or ESC in a name from input
+     * must not reach a terminal or a spreadsheet raw (JSON and HTML escape them their own way).
+     */
+    static String escapeControls(String text) {
+        StringBuilder b = null;
+        for (int i = 0; i < text.length(); i++) {
+            char c = text.charAt(i);
+            boolean control = (c < 0x20 && c != '\t' && c != '\n' && c != '\r') || (c >= 0x7F && c <= 0x9F);
+            if (control && b == null) {
+                b = new StringBuilder(text.length() + 8).append(text, 0, i);
+            }
+            if (b != null) {
+                if (control) {
+                    b.append(String.format(java.util.Locale.ROOT, "\\u%04x", (int) c));
+                } else {
+                    b.append(c);
+                }
+            }
+        }
+        return b == null ? text : b.toString();
     }
 
     /** The text a cell is written as (before CSV quoting). */

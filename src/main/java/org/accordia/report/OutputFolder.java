@@ -83,12 +83,70 @@ public final class OutputFolder {
      * @throws IOException the folder cannot be created or listed
      */
     public static OutputFolder prepare(Path dir, boolean force) throws InputException, IOException {
+        try {
+            return prepareFolder(dir, force);
+        } catch (WriteFailure | InputException e) {
+            throw e;
+        } catch (IOException e) {
+            throw new WriteFailure(dir, "cannot prepare the output folder", e);
+        }
+    }
+
+    /**
+     * Refuses an output folder that is, or lies inside, the study folder or a folder holding one of
+     * its input files, comparing real paths (symbolic links resolved): {@code --out} given as a link
+     * to the study, or as a folder inside it, or a not yet existing folder whose nearest existing
+     * ancestor resolves into the study, is refused before anything is written.
+     *
+     * @param out the output folder as given
+     * @param studyRoot the study folder (the manifest's folder for a manifest)
+     * @param inputs every input file
+     */
+    public static void requireOutsideStudy(Path out, Path studyRoot, List<Path> inputs) throws InputException {
+        Path outReal = realOrProjected(out);
+        Path rootReal = realOrProjected(studyRoot);
+        if (outReal.startsWith(rootReal)) {
+            throw new InputException(out, "the output folder " + (outReal.equals(rootReal) ? "is" : "lies inside")
+                + " the study folder (" + outReal + "); choose an output folder outside the study");
+        }
+        for (Path p : inputs) {
+            if (realOrProjected(p).startsWith(outReal)) {
+                throw new InputException(out, "the output folder holds input files (" + p.getFileName()
+                    + "); choose an output folder outside the study");
+            }
+        }
+    }
+
+    /**
+     * The real path of {@code p}; for a path that does not exist (yet), the real path of its nearest
+     * existing ancestor followed by the remaining names.
+     */
+    static Path realOrProjected(Path p) {
+        Path abs = p.toAbsolutePath().normalize();
+        Path existing = abs;
+        while (existing != null && !Files.exists(existing)) {
+            existing = existing.getParent();
+        }
+        if (existing == null) {
+            return abs;
+        }
+        try {
+            return existing.toRealPath().resolve(existing.relativize(abs)).normalize();
+        } catch (IOException e) {
+            return abs;
+        }
+    }
+
+    private static OutputFolder prepareFolder(Path dir, boolean force) throws InputException, IOException {
         Path abs = dir.toAbsolutePath().normalize();
         if (Files.exists(abs) && !Files.isDirectory(abs)) {
             throw new InputException(dir, "the output path exists and is not a folder");
         }
         boolean created = !Files.exists(abs);
         Files.createDirectories(abs);
+        if (!Files.isWritable(abs)) {
+            throw new WriteFailure(dir, "the output folder is not writable (permission denied)", null);
+        }
         List<Path> temporaries = new ArrayList<>();
         List<Path> others = new ArrayList<>();
         try (DirectoryStream<Path> entries = Files.newDirectoryStream(abs)) {
@@ -188,6 +246,36 @@ public final class OutputFolder {
      * @throws IOException writing failed; the final name is untouched and no temporary file remains
      */
     public Path writeAtomically(String relativeName, IOConsumer<OutputStream> body) throws IOException {
+        try {
+            return writeFile(relativeName, body);
+        } catch (WriteFailure e) {
+            throw e;
+        } catch (IOException e) {
+            throw new WriteFailure(dir, "cannot write " + relativeName, e);
+        }
+    }
+
+    /**
+     * An output could not be written: a full disk, a folder without write permission, a path too
+     * long for the file system. The command line reports it as one line naming the output folder
+     * and the problem, exit code 2 (it is the environment's fault, not a bug).
+     */
+    public static final class WriteFailure extends IOException {
+        private static final long serialVersionUID = 1L;
+
+        WriteFailure(Path folder, String what, IOException cause) {
+            super(folder + ": " + what + (cause == null ? "" : ": " + reason(cause)), cause);
+        }
+
+        private static String reason(IOException e) {
+            if (e instanceof java.nio.file.FileSystemException fs && fs.getReason() != null) {
+                return fs.getReason() + (fs.getFile() == null ? "" : " (" + fs.getFile() + ")");
+            }
+            return e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage();
+        }
+    }
+
+    private Path writeFile(String relativeName, IOConsumer<OutputStream> body) throws IOException {
         Path target = resolveChecked(relativeName);
         Path parent = target.getParent();
         for (Path p = parent; !p.equals(dir) && p.startsWith(dir); p = p.getParent()) {

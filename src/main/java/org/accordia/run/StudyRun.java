@@ -153,15 +153,12 @@ public final class StudyRun {
         requireAnalysable(p);
         CaseSource source = p.caseSource();
         List<Path> inputs = p.inputFiles(source);
-        Path outAbs = out.toAbsolutePath().normalize();
-        for (Path in : inputs) {
-            if (in.toAbsolutePath().normalize().startsWith(outAbs)) {
-                throw new InputException(out, "the output folder holds input files (" + in.getFileName()
-                    + "); choose an output folder outside the study");
-            }
-        }
-        // checksums before anything is written: they name the bytes the report was made from
-        List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, p.study().root());
+        // on real paths: --out given as a link to the study, or inside it, is refused
+        OutputFolder.requireOutsideStudy(out, p.study().root(), inputs);
+        // checksums before anything is written: they name the bytes the report was made from (the
+        // bytes the readers read, never more: a valid header followed by a 100 GB tail is quick)
+        List<InputChecksums.InputFile> checksums = InputChecksums.of(inputs, p.study().root(),
+            p.protocol().readLimits(p.allowOutsideRoot()));
         OutputFolder folder = OutputFolder.prepare(out, force);
         try {
             ConsensusFiles consensus = new ConsensusFiles(folder, AnalysisReport.PICTURES);

@@ -64,11 +64,17 @@ public final class CentreContrasts {
             double logVolumeDf) {
     }
 
-    /** The contrasts of every centre (sorted by name) from measures against one common reference per case. */
+    /**
+     * The contrasts of every centre (sorted by name) from measures against one common reference per
+     * case; empty with fewer than two centres.
+     */
     public static List<Contrast> estimate(List<ReaderCaseMeasure> rows) {
         List<String> cases = List.copyOf(new TreeSet<>(rows.stream().map(ReaderCaseMeasure::caseId).toList()));
         List<String> centres = List.copyOf(new TreeSet<>(rows.stream().map(ReaderCaseMeasure::centre).toList()));
         List<String> readers = List.copyOf(new TreeSet<>(rows.stream().map(ReaderCaseMeasure::reader).toList()));
+        if (centres.size() < 2) {
+            return List.of(); // one centre: nothing to contrast with (as the raw effects)
+        }
         Map<String, Integer> caseIndex = index(cases);
         Map<String, Integer> readerIndex = index(readers);
         int nr = readers.size();

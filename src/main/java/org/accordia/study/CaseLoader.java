@@ -18,6 +18,24 @@ public final class CaseLoader {
     private CaseLoader() {
     }
 
+    /**
+     * The largest label value a study may use. Label values index per-label tables in the
+     * agreement and consensus steps and the consensus masks are written as uint16 NIfTI, so a
+     * larger value is refused when the mask is read, by {@code inspect} and {@code analyze} alike
+     * (docs/limits.md).
+     */
+    public static final int MAX_LABEL = 65_535;
+
+    /** Reads one mask as labels and refuses a label above {@link #MAX_LABEL}. */
+    public static LabelVolume readMask(Path file, ReadLimits limits) throws InputException {
+        LabelVolume v = Volumes.readLabels(file, limits);
+        if (v.maxLabel() > MAX_LABEL) {
+            throw new InputException(file, "label value " + v.maxLabel() + " is above " + MAX_LABEL
+                + ", the largest label value supported (renumber the labels to 1.." + MAX_LABEL + ")");
+        }
+        return v;
+    }
+
     /** Reads every mask of a case with the protocol's limits. */
     public static LoadedCase load(Study study, String caseId, Protocol protocol, boolean allowPathEscape)
         throws InputException {
@@ -42,7 +60,7 @@ public final class CaseLoader {
         Path firstPath = null;
         Geometry first = null;
         for (MaskRef ref : refs) {
-            LabelVolume v = Volumes.readLabels(ref.path(), limits);
+            LabelVolume v = readMask(ref.path(), limits);
             if (first == null) {
                 first = v.geometry();
                 firstPath = ref.path();

@@ -19,12 +19,16 @@ import org.accordia.io.Geometry;
  * @param cases per-case summaries, sorted by case
  * @param labelVoxels voxel count per label value (background excluded) summed over every readable mask
  * @param structures the structures analysis would use (the protocol's, or one per label seen)
- * @param missing (case, reader) pairs without a mask
+ * @param missing (case, reader) pairs without a mask: the first {@link #LIST_CAP} of them
  * @param problems every problem found, sorted by severity, file, message
+ * @param missingCount how many (case, reader) pairs have no mask in all
  */
 public record InspectionReport(Path root, Path manifest, String studyName, List<String> centres,
                                List<ReaderId> readers, List<CaseSummary> cases, SortedMap<Integer, Long> labelVoxels,
-                               List<Structure> structures, List<CaseReader> missing, List<StudyProblem> problems) {
+                               List<Structure> structures, List<CaseReader> missing, List<StudyProblem> problems,
+                               long missingCount) {
+    /** Entries of each list printed in full (cases, missing masks, problems); the rest are counted. */
+    public static final int LIST_CAP = 50;
 
     /**
      * One case.
@@ -51,6 +55,7 @@ public record InspectionReport(Path root, Path manifest, String studyName, List<
         structures = List.copyOf(structures);
         missing = List.copyOf(missing);
         problems = problems.stream().sorted().toList();
+        missingCount = Math.max(missingCount, missing.size());
     }
 
     /** True when no problem is an {@link StudyProblem.Severity#ERROR}. */

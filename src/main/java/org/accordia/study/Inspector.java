@@ -130,7 +130,7 @@ public final class Inspector {
             }
         }
         return new InspectionReport(study.root(), study.manifest(), protocol.study(), study.centres(), study.readers(),
-            cases, labels, structures, study.missing(), problems);
+            cases, labels, structures, study.missing(InspectionReport.LIST_CAP), problems, study.missingCount());
     }
 
     private record CaseResult(InspectionReport.CaseSummary summary, List<StudyProblem> problems) {
@@ -147,7 +147,7 @@ public final class Inspector {
             readers.add(m.reader());
             LabelVolume v;
             try {
-                v = Volumes.readLabels(m.path(), limits);
+                v = CaseLoader.readMask(m.path(), limits);
             } catch (InputException e) {
                 problems.add(StudyProblem.error(m.path(), "unreadable mask: " + e.problem()));
                 continue;

@@ -35,16 +35,20 @@ public final class ProtocolLoader {
     public static final int MAX_ALIASES = 50;
     public static final int MAX_NESTING = 20;
     public static final int MAX_CODE_POINTS = 1_000_000;
+    /**
+     * The most {@code bootstrap_resamples} and {@code permutations}: a p-value resolution of
+     * 10^-5, beyond what any study needs; larger counts only cost hours and memory, and were
+     * accepted and then failed with an out-of-memory message that blamed the volumes.
+     */
+    public static final int MAX_RESAMPLES = 100_000;
 
     private ProtocolLoader() {
     }
 
     public static Protocol load(Path file) throws InputException {
-        if (!Files.exists(file)) {
-            throw new InputException(file, "protocol file not found");
-        }
-        if (!Files.isRegularFile(file)) {
-            throw new InputException(file, "protocol is not a regular file");
+        String problem = org.accordia.io.InputFiles.problem(file); // never opens a named pipe or device
+        if (problem != null) {
+            throw new InputException(file, problem.equals("file not found") ? "protocol file not found" : "protocol: " + problem);
         }
         try {
             if (Files.size(file) > 4L * MAX_CODE_POINTS) {
@@ -119,7 +123,7 @@ public final class ProtocolLoader {
                 ? n.child(m, "region").choice(Protocol.ConsensusRegion.values(), Protocol.ConsensusRegion::key)
                 : consensus.region();
             int resamples = n.has(m, "bootstrap_resamples")
-                ? n.child(m, "bootstrap_resamples").intAtLeast(100) : consensus.bootstrapResamples();
+                ? n.child(m, "bootstrap_resamples").intBetween(100, MAX_RESAMPLES) : consensus.bootstrapResamples();
             consensus = new Protocol.Consensus(region, resamples);
         }
         Protocol.Shift shift = d.shift();
@@ -138,7 +142,7 @@ public final class ProtocolLoader {
                     throw a.fail("must lie strictly between 0 and 1, got " + alpha);
                 }
             }
-            int perms = n.has(m, "permutations") ? n.child(m, "permutations").intAtLeast(99) : shift.permutations();
+            int perms = n.has(m, "permutations") ? n.child(m, "permutations").intBetween(99, MAX_RESAMPLES) : shift.permutations();
             double minShift = n.has(m, "minimum_shift_mm") ? n.child(m, "minimum_shift_mm").nonNegative() : shift.minimumShiftMm();
             double minVol = n.has(m, "minimum_volume_shift_percent")
                 ? n.child(m, "minimum_volume_shift_percent").nonNegative() : shift.minimumVolumeShiftPercent();
@@ -208,14 +212,14 @@ public final class ProtocolLoader {
                 }
                 for (int j = 0; j < l.size(); j++) {
                     Node ln = labelsNode.item(j, l.get(j));
-                    int v = ln.intAtLeast(1);
+                    int v = ln.intBetween(1, CaseLoader.MAX_LABEL);
                     if (labels.contains(v)) {
                         throw ln.fail("label " + v + " is listed twice");
                     }
                     labels.add(v);
                 }
             } else {
-                labels.add(labelsNode.intAtLeast(1));
+                labels.add(labelsNode.intBetween(1, CaseLoader.MAX_LABEL));
             }
             double tol = s.has(m, "tolerance_mm") ? s.child(m, "tolerance_mm").positive() : Structure.DEFAULT_TOLERANCE_MM;
             out.add(new Structure(name, labels, tol));
@@ -352,10 +356,10 @@ public final class ProtocolLoader {
             throw fail("expected an integer, got " + describe());
         }
 
-        int intAtLeast(int min) throws InputException {
+        int intBetween(int min, int max) throws InputException {
             long v = integer();
-            if (v < min || v > Integer.MAX_VALUE) {
-                throw fail("must be an integer between " + min + " and " + Integer.MAX_VALUE + ", got " + v);
+            if (v < min || v > max) {
+                throw fail("must be an integer between " + min + " and " + max + ", got " + v);
             }
             return (int) v;
         }

@@ -45,13 +45,27 @@ public record Study(Path root, Path manifest, List<String> centres, List<ReaderI
 
     /** The masks of one case, sorted by centre then reader; empty for an unknown case. */
     public List<MaskRef> masksOf(String caseId) {
-        List<MaskRef> out = new ArrayList<>();
-        for (MaskRef m : masks) {
-            if (m.caseId().equals(caseId)) {
-                out.add(m);
+        int from = firstMaskOf(caseId);
+        int to = from;
+        while (to < masks.size() && masks.get(to).caseId().equals(caseId)) {
+            to++;
+        }
+        return masks.subList(from, to);
+    }
+
+    /** Index of the first mask whose case is not before {@code caseId} (masks are sorted by case first). */
+    private int firstMaskOf(String caseId) {
+        int lo = 0;
+        int hi = masks.size();
+        while (lo < hi) {
+            int mid = (lo + hi) >>> 1;
+            if (masks.get(mid).caseId().compareTo(caseId) < 0) {
+                lo = mid + 1;
+            } else {
+                hi = mid;
             }
         }
-        return out;
+        return lo;
     }
 
     /** The image of a case, or {@code null} when it has none. */
@@ -66,20 +80,62 @@ public record Study(Path root, Path manifest, List<String> centres, List<ReaderI
 
     /** Every (case, reader) pair without a mask, sorted by case then reader. */
     public List<CaseReader> missing() {
-        Set<CaseReader> present = new TreeSet<>();
-        for (MaskRef m : masks) {
-            present.add(new CaseReader(m.caseId(), m.reader()));
-        }
+        return missing(Integer.MAX_VALUE);
+    }
+
+    /**
+     * The first {@code limit} (case, reader) pairs without a mask, sorted by case then reader. Costs
+     * time in proportion to the masks, the cases and {@code limit}, not to cases x readers.
+     */
+    public List<CaseReader> missing(int limit) {
         List<CaseReader> out = new ArrayList<>();
+        int i = 0;
         for (String c : cases) {
+            if (out.size() >= limit) {
+                break;
+            }
+            while (i < masks.size() && masks.get(i).caseId().compareTo(c) < 0) {
+                i++;
+            }
+            int from = i;
+            while (i < masks.size() && masks.get(i).caseId().equals(c)) {
+                i++;
+            }
+            if (distinctReaders(from, i) == readers.size()) {
+                continue; // every reader read this case
+            }
+            int k = from;
             for (ReaderId r : readers) {
-                CaseReader cr = new CaseReader(c, r);
-                if (!present.contains(cr)) {
-                    out.add(cr);
+                while (k < i && masks.get(k).reader().compareTo(r) < 0) {
+                    k++;
+                }
+                if (k < i && masks.get(k).reader().equals(r)) {
+                    continue;
+                }
+                out.add(new CaseReader(c, r));
+                if (out.size() >= limit) {
+                    break;
                 }
             }
         }
         return out;
+    }
+
+    /** How many (case, reader) pairs have no mask. */
+    public long missingCount() {
+        return (long) cases.size() * readers.size() - distinctReaders(0, masks.size());
+    }
+
+    /** Distinct (case, reader) pairs among masks[from, to) (sorted, so equal pairs are adjacent). */
+    private long distinctReaders(int from, int to) {
+        long n = 0;
+        for (int j = from; j < to; j++) {
+            MaskRef m = masks.get(j);
+            if (j == from || !m.caseId().equals(masks.get(j - 1).caseId()) || !m.reader().equals(masks.get(j - 1).reader())) {
+                n++;
+            }
+        }
+        return n;
     }
 
     /** A copy with more problems. */

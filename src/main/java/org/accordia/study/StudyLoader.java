@@ -19,6 +19,7 @@ import java.util.Set;
 import java.util.TreeMap;
 import java.util.TreeSet;
 import org.accordia.io.InputException;
+import org.accordia.io.InputFiles;
 import org.accordia.io.Volumes;
 import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
@@ -72,7 +73,8 @@ public final class StudyLoader {
         }
         if (Files.isDirectory(studyArg)) {
             Path manifest = studyArg.resolve(MANIFEST);
-            if (Files.isRegularFile(manifest)) {
+            if (InputFiles.present(manifest)) {
+                // a manifest that is a named pipe, a folder or a broken link is refused, not skipped
                 return loadManifest(manifest, options);
             }
             return loadLayout(studyArg, options);
@@ -303,17 +305,19 @@ public final class StudyLoader {
         if (!norm.startsWith(root)) {
             return "path leads outside the study root " + root;
         }
-        if (Files.exists(norm)) {
-            try {
-                Path real = norm.toRealPath();
-                if (!real.startsWith(rootReal)) {
-                    return "path resolves through a symbolic link outside the study root to " + real;
-                }
-            } catch (IOException e) {
-                return null; // unreadable: reported when the file is read
+        try {
+            // one system call for a missing file (10^6 manifest rows naming missing files are normal input)
+            Files.readAttributes(norm, java.nio.file.attribute.BasicFileAttributes.class, LinkOption.NOFOLLOW_LINKS);
+        } catch (IOException e) {
+            return null; // missing or unreadable: reported when the file is read
+        }
+        try {
+            Path real = norm.toRealPath();
+            if (!real.startsWith(rootReal)) {
+                return "path resolves through a symbolic link outside the study root to " + real;
             }
-        } else if (Files.exists(norm, LinkOption.NOFOLLOW_LINKS)) {
-            return null; // dangling link: reported when the file is read
+        } catch (IOException e) {
+            return null; // a dangling link or unreadable: reported when the file is read
         }
         return null;
     }
@@ -345,9 +349,10 @@ public final class StudyLoader {
             .setDuplicateHeaderMode(DuplicateHeaderMode.DISALLOW)
             .get();
 
-        Set<String> centres = new TreeSet<>();
-        Set<ReaderId> readers = new TreeSet<>();
-        Set<String> cases = new TreeSet<>();
+        // hash sets while reading (10^6 rows); the Study sorts them once
+        Set<String> centres = new java.util.HashSet<>();
+        Set<ReaderId> readers = new java.util.HashSet<>();
+        Set<String> cases = new java.util.HashSet<>();
         List<MaskRef> masks = new ArrayList<>();
         Map<String, Path> images = new TreeMap<>();
         Map<String, String> readerCentre = new HashMap<>();
@@ -355,12 +360,17 @@ public final class StudyLoader {
         Map<String, Long> pairLine = new HashMap<>();
         Map<String, Long> imageLine = new HashMap<>();
 
+        InputFiles.requireRegular(manifest);
         String text;
         try {
             if (Files.size(manifest) > MAX_MANIFEST_BYTES) {
                 throw new InputException(manifest, "manifest larger than " + MAX_MANIFEST_BYTES + " bytes");
             }
             text = decoder.decode(java.nio.ByteBuffer.wrap(Files.readAllBytes(manifest))).toString();
+            if (text.startsWith("\uFEFF")) {
+                // a UTF-8 byte-order mark, as spreadsheet programs write it: not part of the first column's name
+                text = " " + text.substring(1);
+            }
         } catch (CharacterCodingException e) {
             throw new InputException(manifest, "not valid UTF-8 text", e);
         } catch (IOException e) {
@@ -375,7 +385,7 @@ public final class StudyLoader {
             }
             for (String h : header) {
                 if (!REQUIRED.contains(h) && !h.equals(OPTIONAL_IMAGE)) {
-                    throw new InputException(manifest, "line 1: unknown column '" + h
+                    throw new InputException(manifest, "line 1: unknown column '" + org.accordia.io.Messages.clip(h, 80)
                         + "' (expected columns case,centre,reader,path and optionally image)");
                 }
             }

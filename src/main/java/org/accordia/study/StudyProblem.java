@@ -53,6 +53,6 @@ public record StudyProblem(Severity severity, Path file, String message) impleme
 
     /** "SEVERITY: file: message", one line. */
     public String line() {
-        return severity + ": " + (file == null ? "" : file + ": ") + message;
+        return severity + ": " + org.accordia.io.Messages.oneLine((file == null ? "" : file + ": ") + message);
     }
 }

@@ -11,6 +11,7 @@ import org.accordia.analysis.LabelResult;
 import org.accordia.analysis.StudyResult;
 import org.accordia.demo.DemoGenerator;
 import org.accordia.demo.DemoSpec;
+import org.accordia.shift.CentreContrasts;
 import org.accordia.shift.GroupEffect;
 import org.accordia.shift.VerdictRules;
 import org.junit.jupiter.api.Test;
@@ -30,13 +31,13 @@ class ScenarioOutcomeTest {
             new TreeSet<>(o.flagged().stream().map(ScenarioOutcome.FlaggedCentre::centre).toList()));
         assertTrue(o.flags("norvale", 1), "the wider centre is flagged wider: " + o.flagged() + " " + o.reasons());
         for (ScenarioOutcome.FlaggedCentre f : o.flagged()) {
-            GroupEffect judged = l.shift().centreFindings().of(f.centre()).effect();
+            GroupEffect judged = CentreContrasts.effects(l.shift().centreContrasts()).stream()
+                .filter(e -> e.group().equals(f.centre())).findFirst().orElseThrow();
             assertEquals((int) Math.signum(judged.signedSurfaceMm()), f.direction(), f.centre());
         }
-        // the adapter reports the judged effect Δ_c of each centre (CentreContrasts)
-        List<GroupEffect> judgedEffects = org.accordia.shift.CentreContrasts.effects(l.shift().centreContrasts());
-        assertEquals(judgedEffects.size(), o.centreEffects().size());
-        for (GroupEffect e : judgedEffects) {
+        // the reported effect is Δ_c against the common reference (centres.csv effect_* columns)
+        assertEquals(l.shift().centreContrasts().size(), o.centreEffects().size());
+        for (GroupEffect e : CentreContrasts.effects(l.shift().centreContrasts())) {
             ScenarioOutcome.CentreEstimate c = o.effectOf(e.group());
             assertEquals(e.signedSurfaceMm(), c.estimateMm(), 0.0);
             assertEquals(e.signedSurfaceLoMm(), c.loMm(), 0.0);

@@ -58,6 +58,22 @@ class AnalyzeHostileTest {
         }
     }
 
+    /**
+     * A small demo study at {@code dir} (2 cases, 2 centres x 2 readers, 16x16x6 voxels) with the
+     * {@link #LIGHT} protocol as its protocol.yaml.
+     */
+    static Path smallDemo(Path dir) {
+        Run r = run("demo", "--out", dir.toString(), "--size", "16,16,6", "--spacing", "2,2,5", "--cases", "2",
+            "--centres", "2", "--readers-per-centre", "2");
+        assertEquals(0, r.code(), r.err());
+        try {
+            Files.writeString(dir.resolve("protocol.yaml"), LIGHT);
+        } catch (IOException e) {
+            throw new java.io.UncheckedIOException(e);
+        }
+        return dir;
+    }
+
     /** The fewest resamples the protocol accepts: these tests check files, not statistics. */
     static final String LIGHT = "structures:\n  - name: lesion\n    labels: [1, 2]\n  - name: core\n    labels: [2]\n"
         + "consensus:\n  bootstrap_resamples: 100\nshift:\n  permutations: 99\n";

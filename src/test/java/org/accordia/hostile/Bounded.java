@@ -13,8 +13,19 @@ import java.util.concurrent.TimeoutException;
  * fuzzing run is one test invocation. A hang becomes an {@link AssertionError} (a finding).
  */
 public final class Bounded implements AutoCloseable {
-    /** Seconds one input may take; far above the milliseconds a tiny input needs. */
-    public static final long SECONDS = 10;
+    /**
+     * Seconds one input may take; far above the milliseconds a tiny input needs, and above the
+     * 10 s that a few replayed inputs exceeded (never reproducibly) on a machine with a load
+     * average of 28 on 2 cores.
+     */
+    public static final long SECONDS = 30;
+    /**
+     * Seconds the first input may take: it also loads and (in fuzzing mode) instruments every
+     * reader class, which took 11 to 16 s on a machine with a load average of 38.
+     */
+    public static final long FIRST_SECONDS = 120;
+
+    private boolean warm;
 
     private final ExecutorService worker = Executors.newSingleThreadExecutor(r -> {
         Thread t = new Thread(r, "accordia-fuzz-input");
@@ -37,11 +48,13 @@ public final class Bounded implements AutoCloseable {
             body.run();
             return null;
         });
+        long bound = warm ? SECONDS : FIRST_SECONDS;
+        warm = true;
         try {
-            f.get(SECONDS, TimeUnit.SECONDS);
+            f.get(bound, TimeUnit.SECONDS);
         } catch (TimeoutException e) {
             f.cancel(true);
-            throw new AssertionError("input took more than " + SECONDS + " s (a hang)");
+            throw new AssertionError("input took more than " + bound + " s (a hang)");
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
             throw new IllegalStateException(e);

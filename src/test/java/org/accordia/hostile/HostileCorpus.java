@@ -34,6 +34,7 @@ public final class HostileCorpus {
     static final short DT_INT16 = 4;
     static final short DT_FLOAT32 = 16;
     static final short DT_RGB24 = 128;
+    static final short DT_INT32 = 8;
 
     /** The valid 4x4x2 mask of every study: two voxels of label 1. */
     static byte[] goodVoxels() {
@@ -175,6 +176,19 @@ public final class HostileCorpus {
         c.pair("png-truncated", "case1.png", concat(new byte[] {(byte) 0x89, 'P', 'N', 'G', '\r', '\n', 0x1a, '\n',
             0, 0, 0, 13, 'I', 'H', 'D', 'R', 0, 0, 0, 4, 0, 0, 0, 4, 8, 0, 0, 0, 0}));
 
+        // TIFF directories that ImageJ's decoder would follow for ever, allocate gigabytes for, or
+        // read pixels from beyond the end of the file (the last two were fuzzing findings).
+        Path tiffSeeds = Path.of("src/test/resources/org/accordia/io/TiffFuzzTestInputs/read");
+        c.pair("tiff-directory-loop", "case1.tif", Files.readAllBytes(tiffSeeds.resolve("hand-directory-loop")));
+        c.pair("tiff-value-count-beyond-file", "case1.tif",
+            Files.readAllBytes(tiffSeeds.resolve("crash-2994e416880e3c3e57121e832622af56b9af3d22")));
+        c.pair("tiff-pixels-beyond-file", "case1.tif",
+            Files.readAllBytes(tiffSeeds.resolve("crash-848d3faec08f82758b7c53c6be4f2e1122dbd578")));
+
+        // ---- Labels beyond the supported range (valid int32 masks).
+        c.pair("label-above-65535", "case1.nii", nifti1(DT_INT32, 32, ints(70_000), 4, 4, 2));
+        c.pair("label-int-max", "case1.nii", nifti1(DT_INT32, 32, ints(Integer.MAX_VALUE), 4, 4, 2));
+
         // ---- Study level.
         c.pair("mismatched-geometry", "case1.nii", nifti1(DT_UINT8, 8, new byte[48], 4, 4, 3));
         c.file("reader-under-two-centres", "study/c1/r1/case1.nii", good);
@@ -217,6 +231,10 @@ public final class HostileCorpus {
             y.append("]\n");
         }
         c.file("protocol-alias-bomb", "protocol.yaml", ascii(y.toString()));
+        c.goodStudy("protocol-huge-resamples");
+        c.file("protocol-huge-resamples", "protocol.yaml", ascii("consensus:\n  bootstrap_resamples: 2000000000\n"));
+        c.goodStudy("protocol-label-above-65535");
+        c.file("protocol-label-above-65535", "protocol.yaml", ascii("structures:\n  - name: big\n    labels: [70000]\n"));
         c.goodStudy("protocol-max-voxels-out-of-range");
         c.file("protocol-max-voxels-out-of-range", "protocol.yaml", ascii("max_voxels: 99999999999\n"));
 
@@ -237,6 +255,16 @@ public final class HostileCorpus {
     }
 
     /** A NIfTI gzip whose stream holds {@code header + data} followed by zeros up to {@code total} bytes. */
+    /** The good study's 32 voxels as little-endian int32, with {@code label} where the good mask has 1. */
+    static byte[] ints(int label) {
+        ByteBuffer b = ByteBuffer.allocate(32 * 4).order(ByteOrder.LITTLE_ENDIAN);
+        byte[] v = goodVoxels();
+        for (int i = 0; i < v.length; i++) {
+            b.putInt(v[i] == 0 ? 0 : label);
+        }
+        return b.array();
+    }
+
     static byte[] floats(ByteOrder order, float... v) {
         return TestFiles.floats(order, v);
     }

@@ -90,12 +90,19 @@ class HostileCorpusTest {
             new Kind("manifest-bad-quoting", "manifest.csv", "malformed CSV"),
             new Kind("manifest-unknown-extension", "b.txt", "unrecognised volume format"),
             new Kind("manifest-reader-under-two-centres", "manifest.csv", "a reader belongs to exactly one centre"),
-            new Kind("manifest-long-file-name", "n".repeat(300) + ".nii", "file not found"),
+            new Kind("manifest-long-file-name", "n".repeat(300) + ".nii", "File name too long"),
             new Kind("manifest-not-utf8", "manifest.csv", "not valid UTF-8 text"),
             new Kind("protocol-unknown-key", "protocol.yaml", "shift.alpah: unknown key"),
             new Kind("protocol-wrong-type", "protocol.yaml", "geometry_tolerance_mm: expected a number, got a list"),
             new Kind("protocol-alias-bomb", "protocol.yaml", "aliases"),
             new Kind("protocol-max-voxels-out-of-range", "protocol.yaml", "max_voxels: must lie between 1 and"),
+            new Kind("tiff-directory-loop", "r2/case1.tif", "directory chain loops"),
+            new Kind("tiff-value-count-beyond-file", "r2/case1.tif", "more than the file's 809 bytes hold"),
+            new Kind("tiff-pixels-beyond-file", "r2/case1.tif", "truncated data: TIFF directory 1"),
+            new Kind("label-above-65535", "r2/case1.nii", "label value 70000 is above 65535"),
+            new Kind("label-int-max", "r2/case1.nii", "label value 2147483647 is above 65535"),
+            new Kind("protocol-huge-resamples", "protocol.yaml", "bootstrap_resamples: must be an integer between 100 and 100000"),
+            new Kind("protocol-label-above-65535", "protocol.yaml", "must be an integer between 1 and 65535"),
             // the study's own protocol.yaml: inspect reads it as analyze does, and both refuse it alike
             new Kind("study-protocol-bad", "study/protocol.yaml", "shift.alpah: unknown key"),
             new Kind("study-protocol-folder", "study/protocol.yaml", "protocol file is not a regular file"),
@@ -104,6 +111,11 @@ class HostileCorpusTest {
             new Kind("every-mask-empty-named-structures", "study",
                 "no mask holds a voxel of any structure of the protocol (lesion)"),
             // built here: cannot be committed to git
+            new Kind("mask-named-pipe", "r2/case1.nii", "named pipe"),
+            new Kind("mask-dangling-link", "r2/case1.nii", "dangling symbolic link"),
+            new Kind("protocol-named-pipe", "protocol.yaml", "named pipe"),
+            new Kind("nrrd-data-file-link-outside", "r2/case1.nhdr", "outside the header's folder through a symbolic link"),
+            new Kind("metaimage-data-file-link-to-environ", "r2/case1.mhd", "outside the header's folder through a symbolic link"),
             new Kind("symlink-loop", "r2", "symbolic link loop"),
             new Kind("symlink-outside-root", "r2", "symbolic link leads outside the study root"),
             new Kind("non-utf8-name", "c1/r", "not valid text in the system encoding"),
@@ -193,6 +205,30 @@ class HostileCorpusTest {
                 Process p = new ProcessBuilder("sh", "-c", "d=\"$1/$(printf 'r\\377')\"; mkdir -p \"$d\" && cp \"$2\" \"$d/case1.nii\"",
                     "sh", study.resolve("c1").toString(), r1.resolve("case1.nii").toString()).inheritIO().start();
                 assertEquals(0, p.waitFor(), "creating a non-UTF-8 name");
+            }
+            case "mask-named-pipe", "protocol-named-pipe" -> {
+                Path r2 = Files.createDirectories(study.resolve("c1/r2"));
+                Files.write(r2.resolve("case1.nii"), HostileCorpus.goodNifti());
+                Path fifo = kind.startsWith("mask") ? r2.resolve("case1.nii") : dst.resolve("protocol.yaml");
+                Files.deleteIfExists(fifo);
+                Process p = new ProcessBuilder("mkfifo", fifo.toString()).inheritIO().start();
+                assertEquals(0, p.waitFor(), "mkfifo");
+            }
+            case "mask-dangling-link" -> Files.createSymbolicLink(Files.createDirectories(study.resolve("c1/r2")).resolve("case1.nii"),
+                Path.of("gone.nii"));
+            case "nrrd-data-file-link-outside", "metaimage-data-file-link-to-environ" -> {
+                Path r2 = Files.createDirectories(study.resolve("c1/r2"));
+                Path outside = Files.write(Files.createDirectories(into.resolve(kind + "-elsewhere")).resolve("secret.raw"),
+                    HostileCorpus.goodVoxels());
+                if (kind.startsWith("nrrd")) {
+                    Files.writeString(r2.resolve("case1.nhdr"), "NRRD0004\ntype: uint8\ndimension: 3\nsizes: 4 4 2\n"
+                        + "encoding: raw\ndata file: case1.raw\n");
+                    Files.createSymbolicLink(r2.resolve("case1.raw"), outside);
+                } else {
+                    Files.writeString(r2.resolve("case1.mhd"), "ObjectType = Image\nNDims = 3\nDimSize = 4 4 2\n"
+                        + "ElementType = MET_UCHAR\nElementDataFile = case1.raw\n");
+                    Files.createSymbolicLink(r2.resolve("case1.raw"), Path.of("/proc/self/environ"));
+                }
             }
             case "study-protocol-fifo" -> {
                 Files.write(Files.createDirectories(study.resolve("c1/r2")).resolve("case1.nii"), HostileCorpus.goodNifti());

@@ -176,4 +176,43 @@ class ImageJReaderTest {
         e = assertThrows(InputException.class, () -> Volumes.readLabels(p, ReadLimits.DEFAULT));
         assertTrue(e.getMessage().contains("junk.png") && e.getMessage().contains("bad magic"), e.getMessage());
     }
+
+    /**
+     * A baseline TIFF (the hand-built one above) whose next-directory offset points back at its
+     * own directory: ImageJ's decoder would follow it for ever; we refuse the loop first.
+     */
+    @Test
+    @org.junit.jupiter.api.Timeout(value = 60, threadMode = org.junit.jupiter.api.Timeout.ThreadMode.SEPARATE_THREAD)
+    void directoryChainLoopIsRefused() throws Exception {
+        Path good = dir.resolve("good.tif");
+        assertTrue(new FileSaver(new ImagePlus("s", new ByteProcessor(3, 2, new byte[] {0, 1, 2, 0, 3, 3}))).saveAsTiff(good.toString()));
+        byte[] bytes = java.nio.file.Files.readAllBytes(good);
+        ByteBuffer b = ByteBuffer.wrap(bytes).order(bytes[0] == 'I' ? ByteOrder.LITTLE_ENDIAN : ByteOrder.BIG_ENDIAN);
+        int ifd = b.getInt(4);
+        int entries = b.getShort(ifd) & 0xFFFF;
+        b.putInt(ifd + 2 + 12 * entries, ifd); // next directory: itself
+        Path loop = TestFiles.write(dir.resolve("loop.tif"), bytes);
+        for (var read : java.util.List.<org.junit.jupiter.api.function.Executable>of(
+                () -> Volumes.readLabels(loop, ReadLimits.DEFAULT),
+                () -> Volumes.readImage(loop, ReadLimits.DEFAULT),
+                () -> Volumes.readGeometry(loop, ReadLimits.DEFAULT))) {
+            InputException e = assertThrows(InputException.class, read);
+            assertTrue(e.getMessage().contains("loop.tif") && e.getMessage().contains("chain loops"), e.getMessage());
+        }
+        // a two-directory cycle (1 -> 2 -> 1) is a loop too
+        Path two = dir.resolve("two.tif");
+        ImageStack stack = new ImageStack(3, 2);
+        stack.addSlice(new ByteProcessor(3, 2));
+        stack.addSlice(new ByteProcessor(3, 2));
+        assertTrue(new FileSaver(new ImagePlus("s", stack)).saveAsTiffStack(two.toString()));
+        byte[] t = java.nio.file.Files.readAllBytes(two);
+        ByteBuffer tb = ByteBuffer.wrap(t).order(t[0] == 'I' ? ByteOrder.LITTLE_ENDIAN : ByteOrder.BIG_ENDIAN);
+        int first = tb.getInt(4);
+        int second = tb.getInt(first + 2 + 12 * (tb.getShort(first) & 0xFFFF));
+        tb.putInt(second + 2 + 12 * (tb.getShort(second) & 0xFFFF), first);
+        Path cycle = TestFiles.write(dir.resolve("cycle.tif"), t);
+        InputException e = assertThrows(InputException.class, () -> Volumes.readLabels(cycle, ReadLimits.DEFAULT));
+        assertTrue(e.getMessage().contains("chain loops"), e.getMessage());
+        assertArrayEquals(new int[] {3, 2, 2}, Volumes.readLabels(two, ReadLimits.DEFAULT).geometry().dims());
+    }
 }

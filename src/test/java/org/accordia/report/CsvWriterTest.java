@@ -68,6 +68,19 @@ class CsvWriterTest {
         }
     }
 
+    /** NUL, ESC, DEL and a C1 control in a name from input are written as visible escapes; tab, CR, LF stay for CSV quoting. */
+    @Test
+    void controlCharactersAreWrittenAsEscapes() {
+        assertEquals("a\\u0000b\\u001b[31mred\\u007f\\u009b", CsvWriter.neutralise("a\u0000b\u001b[31mred\u007f\u009b"));
+        // an escaped control at the start is no formula, and a formula after it is still text
+        assertEquals("\\u001b=1", CsvWriter.neutralise("\u001b=1"));
+        assertEquals("'=\\u0000", CsvWriter.neutralise("=\u0000"));
+        CsvTable t = new CsvTable(List.of("case"));
+        t.addRow(CsvTable.text("c\u0000\u001b"));
+        assertEquals("case\nc\\u0000\\u001b\n", t.toCsv());
+        assertEquals("x\ty", CsvWriter.neutralise("x\ty"));
+    }
+
     @Test
     void neutralisesHeadersToo() {
         CsvTable t = new CsvTable(List.of("case", "=R1"));

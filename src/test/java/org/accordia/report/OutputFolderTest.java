@@ -108,7 +108,9 @@ class OutputFolderTest {
             out.write("{\"half\": ".getBytes(StandardCharsets.UTF_8));
             throw new IOException("simulated crash");
         }));
-        assertEquals("simulated crash", e.getMessage());
+        // the failure names the folder and the file (the command line prints it as one line, exit 2)
+        assertTrue(e instanceof OutputFolder.WriteFailure, e.toString());
+        assertEquals(f.dir() + ": cannot write summary.json: simulated crash", e.getMessage());
         assertEquals(List.of(), names(f.dir()));
         // an unchecked failure behaves the same, and an existing file is left as it was
         f.writeString("summary.json", "old");
@@ -186,5 +188,34 @@ class OutputFolderTest {
                 assertTrue(outputs.add(out), "collision for " + in + " -> " + out);
             }
         }
+    }
+
+    /** --out as a link to the study, a folder inside it (existing or not), or through a linked parent: refused. */
+    @Test
+    void anOutputFolderInsideTheStudyIsRefusedOnResolvedPaths() throws Exception {
+        Path study = Files.createDirectories(tmp.resolve("study"));
+        Path mask = Files.writeString(study.resolve("m.nii"), "x");
+        Path link = Files.createSymbolicLink(tmp.resolve("link"), study);
+        List<Path> inputs = List.of(mask);
+        for (Path out : List.of(link, study, study.resolve("report"), link.resolve("new/deeper"), study.resolve("../study/x"))) {
+            InputException e = assertThrows(InputException.class, () -> OutputFolder.requireOutsideStudy(out, study, inputs), out.toString());
+            assertTrue(e.getMessage().contains("study folder"), e.getMessage());
+        }
+        OutputFolder.requireOutsideStudy(tmp.resolve("elsewhere"), study, inputs);
+        // a manifest study whose input lies in the output folder
+        Path outer = Files.createDirectories(tmp.resolve("outer"));
+        Path input = Files.writeString(outer.resolve("in.nii"), "x");
+        InputException e = assertThrows(InputException.class, () -> OutputFolder.requireOutsideStudy(outer, study, List.of(input)));
+        assertTrue(e.getMessage().contains("holds input files"), e.getMessage());
+        assertEquals(List.of("m.nii"), names(study));
+    }
+
+    /** An output path too long for the file system fails as a WriteFailure naming the folder. */
+    @Test
+    void anOverlongOutputPathIsAWriteFailure() {
+        Path out = tmp.resolve("x".repeat(300));
+        IOException e = assertThrows(IOException.class, () -> OutputFolder.prepare(out, false));
+        assertTrue(e instanceof OutputFolder.WriteFailure, e.toString());
+        assertTrue(e.getMessage().startsWith(out.toString()) && e.getMessage().contains("File name too long"), e.getMessage());
     }
 }

@@ -99,6 +99,26 @@ class StudyLoaderTest {
         assertEquals(fromLayout.missing(), fromManifest.missing());
     }
 
+    /** A UTF-8 byte-order mark, as spreadsheet programs write it, is not part of the first column's name. */
+    @Test
+    void manifestWithByteOrderMarkLoads() throws Exception {
+        touch("x/r/c.nii.gz");
+        touch("y/s/c.nii.gz");
+        manifest("manifest.csv", "\uFEFFcase,centre,reader,path\nc,x,r,x/r/c.nii.gz\nc,y,s,y/s/c.nii.gz\n");
+        Study s = StudyLoader.load(root, LoadOptions.DEFAULT);
+        assertEquals(List.of("c"), s.cases());
+        assertEquals(List.of("x", "y"), s.centres());
+    }
+
+    /** A manifest.csv that is a folder is refused, not skipped in favour of the layout. */
+    @Test
+    void manifestThatIsAFolderIsRefused() throws Exception {
+        touch("x/r/c.nii.gz");
+        Files.createDirectories(root.resolve("manifest.csv"));
+        InputException e = refused(root);
+        assertTrue(e.getMessage().contains("manifest.csv") && e.getMessage().contains("a folder, not a file"), e.getMessage());
+    }
+
     @Test
     void folderWithManifestCsvUsesIt() throws Exception {
         touch("x/r/c.nii.gz");
