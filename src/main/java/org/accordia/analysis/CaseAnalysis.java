@@ -84,7 +84,7 @@ public final class CaseAnalysis {
             CaseReferences r = CaseReferences.compute(lc.caseId(), st.name(), names, centres, h,
                 ca.voxelVolumeMl(), staple);
             List<ReaderPerformance> rows = r.rowsWithSurfaces(masks, st.labels().stream().mapToInt(Integer::intValue).toArray(),
-                ca.unionBox());
+                ca.unionBox(), st.toleranceMm());
             double maxHd95 = Double.NaN;
             for (PairMetrics p : ca.pairs()) {
                 if (p.hasDistances() && !(p.hd95Mm() <= maxHd95)) {
@@ -118,7 +118,17 @@ public final class CaseAnalysis {
             undecidedVoxels = ml.consensusCounts().getOrDefault(undecided, 0L);
         }
         double score = worstMedian == Double.POSITIVE_INFINITY ? Double.NaN : 1 - worstMedian;
-        CaseRecord record = new CaseRecord(lc.caseId(), readers, empty, out, score, undecidedVoxels);
+        List<java.util.SortedMap<Integer, Long>> labelCounts = new ArrayList<>();
+        for (LabelVolume v : masks) {
+            java.util.TreeMap<Integer, Long> counts = new java.util.TreeMap<>();
+            v.labelCounts().forEach((k, n) -> {
+                if (k >= 1 && n > 0) {
+                    counts.put(k, n);
+                }
+            });
+            labelCounts.add(counts);
+        }
+        CaseRecord record = new CaseRecord(lc.caseId(), readers, empty, out, score, undecidedVoxels, labelCounts);
         sink.accept(new CaseSink.CaseWork(lc, refs, ml, undecided, record, image));
         return record;
     }

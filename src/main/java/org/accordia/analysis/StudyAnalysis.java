@@ -30,6 +30,8 @@ import org.accordia.shift.GroupEffect;
 import org.accordia.shift.LabelShiftInput;
 import org.accordia.shift.LabelShiftReport;
 import org.accordia.shift.LabelShiftSummary;
+import org.accordia.shift.MaskLabels;
+import org.accordia.shift.MaskToCorrect;
 import org.accordia.shift.ReaderCaseMeasure;
 import org.accordia.shift.ReaderMeasure;
 import org.accordia.shift.ShiftAnalysis;
@@ -269,6 +271,7 @@ public final class StudyAnalysis {
         List<CaseSummary> summaries2 = new ArrayList<>();
         List<double[]> volumeRows = new ArrayList<>();
         List<ReaderPerformance> allRows = new ArrayList<>();
+        List<MaskLabels> maskLabels = new ArrayList<>();
         for (CaseRecord c : cases) {
             StructureCase sc = c.structures().get(s);
             CaseAgreement ca = sc.agreement();
@@ -281,7 +284,7 @@ public final class StudyAnalysis {
                         continue;
                     }
                     ReaderCaseMeasure m = new ReaderCaseMeasure(keys.get(r), r.centre(), c.caseId(),
-                        p.signedSurfaceMm(), p.volumeRatio());
+                        p.signedSurfaceMm(), p.volumeRatio(), p.border());
                     if (p.reference().equals(ReaderPerformance.REFERENCE_OTHER_CENTRES)) {
                         centreMeasures.add(m);
                     } else if (p.reference().equals(ReaderPerformance.REFERENCE_ALL)) {
@@ -295,8 +298,11 @@ public final class StudyAnalysis {
                     }
                 }
             }
-            summaries2.add(new CaseSummary(c.caseId(), ca.medianDice(), sc.maxHd95Mm(), ca.oneEmptyPairs(),
-                c.readers().size()));
+            summaries2.add(caseSummary(c, sc, caseKeys));
+            for (int j = 0; j < c.readers().size(); j++) {
+                maskLabels.add(new MaskLabels(caseKeys.get(j), c.readers().get(j).centre(), c.caseId(),
+                    ca.voxelCounts().get(j), j < c.labelCounts().size() ? c.labelCounts().get(j) : new TreeMap<>()));
+            }
             if (c.readers().size() == readers.size()) {
                 volumeRows.add(ca.volumesMl().stream().mapToDouble(Double::doubleValue).toArray());
             }
@@ -307,7 +313,8 @@ public final class StudyAnalysis {
         double[][] volumes = volumeRows.size() >= 2 && readers.size() >= 2 ? volumeRows.toArray(new double[0][]) : null;
         LabelShiftInput input = new LabelShiftInput(s + 1, st.name(), distanceName(distance),
             readerCentre, distances, centreMeasures, readerMeasures, commonMeasures,
-            "border offset against the consensus of all readers (mm)", variance, summaries2, volumes);
+            "border offset against the consensus of all readers (mm)", variance, summaries2, volumes,
+            maskLabels);
         LabelShiftReport report = ShiftAnalysis.analyse(input, settings);
         List<String> notes = new ArrayList<>();
         LabelShiftSummary summary = orderFlagged(report, notes, settings);
@@ -315,6 +322,42 @@ public final class StudyAnalysis {
             ? ReaderSummary.summarise(allRows, all.consensus().bootstrapResamples(), settings.seed() + 7919L * (s + 1))
             : List.of();
         return new LabelResult(s + 1, st, input, report, summary, notes, rs, missedStructure(cases, s));
+    }
+
+    /**
+     * The adjudication summary of one case and structure, with its pairs and the masks a reader
+     * should correct: a whole majority part left out ({@link MissedComponents}), or an empty mask
+     * while every other reader draws the structure.
+     */
+    static CaseSummary caseSummary(CaseRecord c, StructureCase sc, List<String> caseKeys) {
+        CaseAgreement ca = sc.agreement();
+        int n = ca.readers().size();
+        double[] dice = new double[ca.pairs().size()];
+        double[] hd95 = new double[ca.pairs().size()];
+        for (int k = 0; k < dice.length; k++) {
+            PairMetrics p = ca.pairs().get(k);
+            dice[k] = p.dice();
+            hd95[k] = p.hasDistances() ? p.hd95Mm() : Double.NaN;
+        }
+        boolean[] emptyMask = new boolean[n];
+        int drawing = 0;
+        for (int j = 0; j < n; j++) {
+            emptyMask[j] = ca.voxelCounts().get(j) == 0;
+            drawing += emptyMask[j] ? 0 : 1;
+        }
+        List<MaskToCorrect> fix = new ArrayList<>();
+        for (int j = 0; j < n; j++) {
+            String centre = c.readers().get(j).centre();
+            if (emptyMask[j] && n >= 3 && drawing == n - 1) {
+                fix.add(new MaskToCorrect(c.caseId(), caseKeys.get(j), centre, MaskToCorrect.Kind.EMPTY_WHILE_OTHERS_DRAW,
+                    0, 0));
+            } else if (!emptyMask[j] && sc.missedParts().get(j) > 0) {
+                fix.add(new MaskToCorrect(c.caseId(), caseKeys.get(j), centre, MaskToCorrect.Kind.LEAVES_OUT_PART,
+                    sc.missedParts().get(j), sc.missedPartsMl().get(j)));
+            }
+        }
+        return new CaseSummary(c.caseId(), ca.medianDice(), sc.maxHd95Mm(), ca.oneEmptyPairs(), c.readers().size(),
+            caseKeys, dice, hd95, emptyMask, fix);
     }
 
     /** The pairwise distance matrix of one case per the protocol's distance (NaN = undefined). */
@@ -400,9 +443,7 @@ public final class StudyAnalysis {
             sh.betweenVariance(), sh.withinVariance(), sh.n0(), sh.pseudoF(), sh.dfBetween(), sh.dfWithin(),
             sh.pValue(), sh.permutations(), sh.exact(), sh.minP(), sh.canReachAlpha(), sh.designStatement(), flagged,
             sh.notes());
-        return new LabelShiftSummary(sum.label(), sum.name(), reordered, sum.varianceMeasure(),
-            sum.varianceComponents(), sum.varianceIntervalMethod(), sum.centreVarianceTest(), sum.icc(),
-            sum.verdict(), sum.rule(), sum.reasons(), sum.casesToAdjudicate(), sum.readersToRecalibrate());
+        return sum.withShift(reordered);
     }
 
     /**

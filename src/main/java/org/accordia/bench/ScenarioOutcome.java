@@ -7,7 +7,9 @@ import java.util.TreeMap;
 import org.accordia.analysis.LabelResult;
 import org.accordia.analysis.StudyResult;
 import org.accordia.shift.CentreContrasts;
+import org.accordia.shift.CentreFindings;
 import org.accordia.shift.CentreRow;
+import org.accordia.shift.DesignLimitation;
 import org.accordia.shift.GroupEffect;
 import org.accordia.shift.LabelShiftReport;
 import org.accordia.shift.LabelShiftSummary;
@@ -90,12 +92,9 @@ public record ScenarioOutcome(String label, List<FlaggedCentre> flagged, List<St
         LabelShiftSummary summary = l.summary();
         LabelShiftReport shift = l.shift();
         List<GroupEffect> judged = CentreContrasts.effects(shift.centreContrasts());
-        Map<String, Double> judgedMm = new TreeMap<>();
-        judged.forEach(e -> judgedMm.put(e.group(), e.signedSurfaceMm()));
         List<FlaggedCentre> flagged = new ArrayList<>();
         for (String c : new java.util.TreeSet<>(summary.shift().flaggedCentres())) {
-            Double mm = judgedMm.get(c);
-            flagged.add(new FlaggedCentre(c, mm == null || !Double.isFinite(mm) ? 0 : (int) Math.signum(mm)));
+            flagged.add(new FlaggedCentre(c, direction(shift.centreFindings().of(c))));
         }
         List<String> uncertain = shift.centreRows().stream()
             .filter(r -> VerdictRules.FLAG_UNCERTAIN.equals(r.flag())).map(CentreRow::centre).sorted().toList();
@@ -105,12 +104,35 @@ public record ScenarioOutcome(String label, List<FlaggedCentre> flagged, List<St
             .map(e -> new CentreEstimate(e.group(), e.readers(), e.signedSurfaceMm(), e.signedSurfaceLoMm(),
                 e.signedSurfaceHiMm()))
             .sorted(java.util.Comparator.comparing(CentreEstimate::centre)).toList();
-        String statement = summary.shift().designStatement();
-        boolean alphaSentence = !summary.shift().canReachAlpha() && statement != null && !statement.isBlank()
-            && summary.reasons().stream().anyMatch(r -> r.contains(statement));
-        return new ScenarioOutcome(label, flagged, uncertain, readers, effects, alphaSentence, false,
+        boolean alphaSentence = summary.designLimitations().stream()
+            .anyMatch(d -> d.kind() == DesignLimitation.CANNOT_REACH_ALPHA);
+        boolean oneReaderSentence = summary.designLimitations().stream()
+            .anyMatch(d -> d.kind() == DesignLimitation.ONE_READER_CENTRE);
+        return new ScenarioOutcome(label, flagged, uncertain, readers, effects, alphaSentence, oneReaderSentence,
             summary.verdict(), summary.rule(), summary.reasons(), shift.permutation().pValue(),
             shift.permutation().canReachAlpha());
+    }
+
+    /**
+     * The direction of a flagged centre's judged effect: the sign of Δ_c's signed surface (else of its
+     * volume ratio); for a centre flagged on its border beyond tolerance alone, outside (+1) or inside
+     * (−1) by the larger excess; in a pair, the second centre by name has the opposite sign.
+     */
+    private static int direction(CentreFindings.Finding f) {
+        if (f == null) {
+            return 0;
+        }
+        double d;
+        if (f.localBeyond() && !f.surfaceBeyond() && !f.volumeSupported() && f.local() != null) {
+            d = f.local().outsideSide() ? 1 : -1;
+        } else {
+            GroupEffect e = f.effect();
+            d = Double.isFinite(e.signedSurfaceMm()) ? e.signedSurfaceMm() : Math.log(e.volumeRatio());
+        }
+        if (f.partner() != null && f.centre().compareTo(f.partner()) > 0) {
+            d = -d;
+        }
+        return Double.isFinite(d) ? (int) Math.signum(d) : 0;
     }
 
     /** Whether {@code centre} is flagged with direction {@code direction} (sign). */

@@ -9,11 +9,16 @@ import java.util.Map;
 import java.util.concurrent.Callable;
 import java.util.stream.Collectors;
 import org.accordia.io.Geometry;
+import org.accordia.report.DecisionWords;
+import org.accordia.shift.DesignLimit;
+import org.accordia.shift.DesignLimits;
+import org.accordia.shift.ShiftSettings;
 import org.accordia.run.PreparedStudy;
 import org.accordia.run.ProtocolSource;
 import org.accordia.run.StudyRun;
 import org.accordia.study.CaseReader;
 import org.accordia.study.InspectionReport;
+import org.accordia.study.Protocol;
 import org.accordia.study.ReaderId;
 import org.accordia.study.Structure;
 import org.accordia.study.StudyProblem;
@@ -68,6 +73,7 @@ public final class InspectCommand implements Callable<Integer> {
         InspectionReport report = StudyRun.inspect(prepared, threads);
         PrintWriter out = spec.commandLine().getOut();
         out.print(format(report, prepared.protocolSource()));
+        out.print(designWarnings(report, prepared.protocol()));
         out.flush();
         if (!report.analysable()) {
             PrintWriter err = spec.commandLine().getErr();
@@ -152,6 +158,25 @@ public final class InspectCommand implements Callable<Integer> {
         more(b, r.problems().size(), "problems");
         b.append('\n');
         b.append(r.analysable() ? "Result: the study can be analysed.\n" : "Result: the study cannot be analysed as it is.\n");
+        return b.toString();
+    }
+
+    /**
+     * What the roster cannot answer, before any analysis ({@link DesignLimits}, the same sentences
+     * as the report's decision); empty when nothing is limited.
+     */
+    static String designWarnings(InspectionReport r, Protocol protocol) {
+        Map<String, Integer> roster = new java.util.TreeMap<>();
+        r.readers().forEach(x -> roster.merge(x.centre(), 1, Integer::sum));
+        List<DesignLimit> limits = DesignLimits.of(roster, protocol.shift().alpha(), ShiftSettings.DEFAULT_EXACT_LIMIT,
+            protocol.shift().permutations());
+        if (limits.isEmpty()) {
+            return "";
+        }
+        StringBuilder b = new StringBuilder("\nDesign warnings (what this roster cannot answer, whatever the masks show):\n");
+        for (DesignLimit d : limits) {
+            b.append("  warning: ").append(DecisionWords.design(d, protocol.shift().alpha())).append('\n');
+        }
         return b.toString();
     }
 

@@ -207,6 +207,17 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
      */
     public List<ReaderPerformance> rowsWithSurfaces(List<LabelVolume> masks, int[] structureLabels,
             org.accordia.grid.Box unionBox) {
+        return rowsWithSurfaces(masks, structureLabels, unionBox, Double.NaN);
+    }
+
+    /**
+     * {@link #rowsWithSurfaces(List, int[], org.accordia.grid.Box)} with each row's
+     * {@link BorderProfile} at the structure's tolerance (same distance transforms); no profile
+     * when {@code toleranceMm} is NaN.
+     */
+    public List<ReaderPerformance> rowsWithSurfaces(List<LabelVolume> masks, int[] structureLabels,
+            org.accordia.grid.Box unionBox, double toleranceMm) {
+        boolean profile = !Double.isNaN(toleranceMm);
         if (masks.size() != readers.size()) {
             throw new IllegalArgumentException("one mask per reader expected");
         }
@@ -240,6 +251,7 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
             byMask.computeIfAbsent(key, x -> new ArrayList<>()).addAll(e.getValue());
         }
         double[] mm = new double[base.size()];
+        BorderProfile[] profiles = new BorderProfile[base.size()];
         double[] offset = new double[base.size()];
         java.util.Arrays.fill(offset, Double.NaN);
         for (var e : byMask.entrySet()) {
@@ -248,9 +260,13 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
             for (int t = 0; t < idx.length; t++) {
                 idx[t] = readerOfRow.get(rowsOf.get(t));
             }
-            double[] v = prep.meanSignedMm(e.getKey().mask(), idx);
+            BorderProfile[] got = profile ? new BorderProfile[idx.length] : null;
+            double[] v = prep.meanSignedMm(e.getKey().mask(), idx, toleranceMm, got);
             for (int t = 0; t < idx.length; t++) {
                 mm[rowsOf.get(t)] = v[t];
+                if (got != null) {
+                    profiles[rowsOf.get(t)] = got[t];
+                }
             }
             // the all-reader reference: also the reverse direction, for the antisymmetric border offset
             List<Integer> allRows = new ArrayList<>();
@@ -269,7 +285,7 @@ public record CaseReferences(String caseId, String label, List<String> readers, 
         }
         List<ReaderPerformance> out = new ArrayList<>(base.size());
         for (int t = 0; t < base.size(); t++) {
-            out.add(base.get(t).withSignedSurfaceMm(mm[t]).withBorderOffsetMm(offset[t]));
+            out.add(base.get(t).withSurface(mm[t], profiles[t]).withBorderOffsetMm(offset[t]));
         }
         return out;
     }

@@ -29,10 +29,20 @@ import java.util.List;
  *     swap, so a common reference cancels from differences between readers (on a 1 × 1 × 2 mm grid
  *     a 1.5 mm wider margin measures +1.45 mm from the outer border inwards but −1.26 mm from the
  *     inner border outwards). Not a column of readers.csv.
+ * @param border where the reader's border lies against the reference beyond the structure's
+ *     tolerance ({@link BorderProfile}); null when not computed
  */
 public record ReaderPerformance(String caseId, String label, String reader, String centre, double sensitivity,
         double specificity, double diceVsConsensus, double volumeMl, double volumeRatio, double signedSurfaceMm,
-        String reference, double borderOffsetMm) {
+        String reference, double borderOffsetMm, BorderProfile border) {
+
+    /** A row without a border profile. */
+    public ReaderPerformance(String caseId, String label, String reader, String centre, double sensitivity,
+            double specificity, double diceVsConsensus, double volumeMl, double volumeRatio, double signedSurfaceMm,
+            String reference, double borderOffsetMm) {
+        this(caseId, label, reader, centre, sensitivity, specificity, diceVsConsensus, volumeMl, volumeRatio,
+            signedSurfaceMm, reference, borderOffsetMm, null);
+    }
 
     public static final String REFERENCE_ALL = "all";
     public static final String REFERENCE_OTHERS = "others";
@@ -55,12 +65,18 @@ public record ReaderPerformance(String caseId, String label, String reader, Stri
     /** The same row with the antisymmetric border offset filled in. */
     public ReaderPerformance withBorderOffsetMm(double mm) {
         return new ReaderPerformance(caseId, label, reader, centre, sensitivity, specificity, diceVsConsensus,
-            volumeMl, volumeRatio, signedSurfaceMm, reference, mm);
+            volumeMl, volumeRatio, signedSurfaceMm, reference, mm, border);
     }
 
     /** The same row with a signed surface distance filled in. */
     public ReaderPerformance withSignedSurfaceMm(double mm) {
         return new ReaderPerformance(caseId, label, reader, centre, sensitivity, specificity, diceVsConsensus,
-            volumeMl, volumeRatio, mm, reference, borderOffsetMm);
+            volumeMl, volumeRatio, mm, reference, borderOffsetMm, border);
+    }
+
+    /** The same row with a signed surface distance and a border profile filled in. */
+    public ReaderPerformance withSurface(double mm, BorderProfile profile) {
+        return new ReaderPerformance(caseId, label, reader, centre, sensitivity, specificity, diceVsConsensus,
+            volumeMl, volumeRatio, mm, reference, borderOffsetMm, profile);
     }
 }

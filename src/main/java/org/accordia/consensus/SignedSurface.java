@@ -207,7 +207,19 @@ public final class SignedSurface {
 
         /** Mean signed distance of each listed reader to one consensus mask on the box. */
         double[] meanSignedMm(boolean[] consensus, int[] readerIdx) {
+            return meanSignedMm(consensus, readerIdx, Double.NaN, null);
+        }
+
+        /**
+         * Mean signed distance of each listed reader to one consensus mask on the box and, when
+         * {@code profiles} is not null, each reader's {@link BorderProfile} at {@code toleranceMm}
+         * (same distance transform; directions from the consensus centroid).
+         */
+        double[] meanSignedMm(boolean[] consensus, int[] readerIdx, double toleranceMm, BorderProfile[] profiles) {
             double[] out = new double[readerIdx.length];
+            if (profiles != null) {
+                java.util.Arrays.fill(profiles, BorderProfile.empty(toleranceMm));
+            }
             if (box.isEmpty()) {
                 java.util.Arrays.fill(out, Double.NaN);
                 return out;
@@ -228,18 +240,40 @@ public final class SignedSurface {
                 return out;
             }
             double[] d2 = DistanceTransform.squaredDistanceMm2(cb, nx, ny, nz, spacing[0], spacing[1], spacing[2]);
+            double[] m = profiles == null ? null
+                : BorderProfile.centroidMm(consensus, nx, ny, spacing[0], spacing[1], spacing[2]);
+            int nxy = nx * ny;
             for (int k = 0; k < readerIdx.length; k++) {
                 boolean[] rb = readerBorder(readerIdx[k]);
                 double sum = 0;
                 long n = 0;
+                long outside = 0;
+                long inside = 0;
+                long[] bd = new long[BorderProfile.DIRECTIONS];
+                long[] od = new long[BorderProfile.DIRECTIONS];
                 for (int i = 0; i < rb.length; i++) {
                     if (rb[i]) {
                         double d = Math.sqrt(d2[i]);
-                        sum += consensus[i] ? -d : d;
+                        double signed = consensus[i] ? -d : d;
+                        sum += signed;
                         n++;
+                        if (m != null) {
+                            int dir = BorderProfile.direction(i % nx * spacing[0] - m[0],
+                                i / nx % ny * spacing[1] - m[1], i / nxy * spacing[2] - m[2]);
+                            bd[dir]++;
+                            if (signed > toleranceMm) {
+                                outside++;
+                                od[dir]++;
+                            } else if (signed < -toleranceMm) {
+                                inside++;
+                            }
+                        }
                     }
                 }
                 out[k] = n == 0 ? Double.NaN : sum / n;
+                if (m != null) {
+                    profiles[k] = new BorderProfile(toleranceMm, n, outside, inside, bd, od);
+                }
             }
             return out;
         }

@@ -204,9 +204,13 @@ public final class AnalysisReport {
         for (LabelResult l : r.labels()) {
             var s = l.summary();
             String first = s.reasons().isEmpty() ? "" : s.reasons().get(0);
-            h.callout(level(s.verdict()), l.name() + " — " + verdictWords(s.verdict()),
+            String headline = DecisionWords.headline(s.rule());
+            h.callout(level(s.verdict()), l.name() + " — " + (headline != null ? headline : verdictWords(s.verdict())),
                 "Rule: " + s.rule() + ". " + first);
             List<String> items = new ArrayList<>();
+            for (org.accordia.shift.DesignLimit d : s.designLimitations()) {
+                items.add(DecisionWords.design(d, r.shiftSettings().alpha()));
+            }
             for (int i = 1; i < s.reasons().size(); i++) {
                 items.add(s.reasons().get(i));
             }
@@ -215,6 +219,13 @@ public final class AnalysisReport {
             }
             if (!items.isEmpty()) {
                 h.list(items);
+            }
+            List<org.accordia.shift.LocalEffect> local = l.shift().localEffects();
+            if (LocalPicture.worthShowing(local, org.accordia.shift.LocalEffects.MINIMUM_EXCESS)) {
+                h.figure(LocalPicture.chart(local, l.name(), WIDTH, 420), l.name() + ": where on the structure the "
+                    + "centres differ. Bars: share of each centre's border more than the structure's tolerance outside "
+                    + "the other centres' consensus, per direction from the consensus centre.",
+                    "Bar chart of the share of border beyond tolerance per centre and direction for " + l.name());
             }
         }
     }
@@ -227,20 +238,32 @@ public final class AnalysisReport {
         List<List<String>> rows = new ArrayList<>();
         for (LabelResult l : r.labels()) {
             for (CaseToAdjudicate c : l.summary().casesToAdjudicate()) {
-                List<String> why = new ArrayList<>(c.reasons());
-                for (MissedStructure m : l.missedStructure()) {
-                    if (m.cases().contains(c.caseId())) {
-                        why.add("reader " + m.reader() + " (" + m.centre() + ") leaves out a part of " + l.name()
-                            + " that most readers mark");
-                    }
-                }
-                rows.add(List.of(l.name(), c.caseId(), String.join("; ", why)));
+                rows.add(List.of(l.name(), c.caseId(), String.join("; ", c.reasons())));
             }
         }
         if (rows.isEmpty()) {
-            h.paragraph("No case needs adjudication.");
+            h.paragraph("No case needs adjudication: the readers do not genuinely disagree on any case (masks a "
+                + "reader should correct are listed below).");
         } else {
+            h.paragraph("Cases the readers genuinely disagree on, judged without the masks listed under Masks to "
+                + "correct.");
             h.table(null, List.of("Structure", "Case", "Why"), rows, null);
+        }
+
+        h.subsection("Masks to correct");
+        rows = new ArrayList<>();
+        for (LabelResult l : r.labels()) {
+            for (org.accordia.shift.MaskToCorrect m : l.summary().masksToCorrect()) {
+                rows.add(List.of(l.name(), m.caseId(), capitalise(DecisionWords.correction(m)) + "."));
+            }
+        }
+        if (rows.isEmpty()) {
+            h.paragraph("No reader leaves out a part that the others mark.");
+        } else {
+            h.paragraph("One reader's slip on one case: a part most readers mark is left out, or the mask is empty "
+                + "while every other reader draws the structure. These go back to the reader, not to adjudication, "
+                + "and do not count toward the adjudication share.");
+            h.table(null, List.of("Structure", "Case", "What to correct"), rows, null);
         }
 
         h.subsection("Readers to recalibrate");
@@ -339,7 +362,7 @@ public final class AnalysisReport {
         h.section("Centre effects");
         for (LabelResult l : r.labels()) {
             List<GroupEffect> e = CentreContrasts.effects(l.shift().centreContrasts());
-            if (e.isEmpty()) {
+            if (e.size() < 2) {
                 // one centre (or none comparable): no centre has other centres to be compared with
                 h.paragraph("No centre effect for " + l.name() + ": a centre is compared with the other centres' "
                     + "consensus, and this study has fewer than two centres with readers.");
@@ -652,9 +675,13 @@ public final class AnalysisReport {
             + "the rest; Holm 1979) AND its interval lies entirely beyond the minimum shift (%s mm or %s%% volume).", r.labels().isEmpty() ? "" : r.labels().get(0).input().distanceName(),
             s.exactLimit(), s.permutations(), Numbers.format(s.alpha()), s.bootstrapResamples(),
             Numbers.format(s.minimumShiftMm()), Numbers.format(s.minimumVolumeShiftPercent())));
-        h.paragraph("Decision rules, in order: centre-shift (re-annotate); significant-but-small, "
-            + "uncertain-centre-effect, design-cannot-reach-alpha, many-cases-to-adjudicate, readers-to-recalibrate "
-            + "(review); otherwise no-shift (pool). Every random generator is seeded from the seed below; the "
+        h.paragraph("Decision rules, in order: empty-centre or empty-reader (review; no pooling verdict while a "
+            + "group's masks are all empty for a structure the others draw); centre-shift or centre-pair-differs "
+            + "(re-annotate; a centre is flagged on its surface or volume interval, or on the share of its border "
+            + "beyond the structure's tolerance, against the typical centre); significant-but-small, "
+            + "uncertain-centre-effect, design-cannot-reach-alpha, many-cases-to-adjudicate (cases the readers "
+            + "genuinely disagree on; masks a reader should correct are listed apart), readers-to-recalibrate "
+            + "(review); otherwise single-centre (one centre: shift not testable) or no-shift (pool). Every random generator is seeded from the seed below; the "
             + "same inputs and seed give the same tables and summary whatever the number of threads.");
         h.subsection("Settings used");
         h.paragraph("Protocol: " + info.protocolSource() + ".");

@@ -77,7 +77,8 @@ public record SummaryJson(
     /** The per-label result: the shift summary's fields plus the notes of the analysis. */
     @JsonPropertyOrder({"label", "name", "labels", "shift", "variance_measure", "variance_components",
         "variance_interval_method", "centre_variance_test", "icc", "verdict", "rule", "reasons", "centre_notes",
-        "cases_to_adjudicate", "readers_to_recalibrate", "readers_missing_parts"})
+        "cases_to_adjudicate", "readers_to_recalibrate", "readers_missing_parts", "design_limitations", "empty_groups",
+        "masks_to_correct"})
     public record Label(
             @JsonProperty("label") int label,
             @JsonProperty("name") String name,
@@ -94,7 +95,10 @@ public record SummaryJson(
             @JsonProperty("centre_notes") List<String> centreNotes,
             @JsonProperty("cases_to_adjudicate") List<CaseToAdjudicate> casesToAdjudicate,
             @JsonProperty("readers_to_recalibrate") List<ReaderToRecalibrate> readersToRecalibrate,
-            @JsonProperty("readers_missing_parts") List<Missed> readersMissingParts) {
+            @JsonProperty("readers_missing_parts") List<Missed> readersMissingParts,
+            @JsonProperty("design_limitations") List<org.accordia.shift.DesignLimit> designLimitations,
+            @JsonProperty("empty_groups") List<org.accordia.shift.EmptyGroup> emptyGroups,
+            @JsonProperty("masks_to_correct") List<org.accordia.shift.MaskToCorrect> masksToCorrect) {
     }
 
     /** The cautions every output carries. */
@@ -127,7 +131,8 @@ public record SummaryJson(
             }
             labels.add(new Label(s.label(), s.name(), l.structure().labels(), s.shift(), s.varianceMeasure(),
                 s.varianceComponents(), s.varianceIntervalMethod(), s.centreVarianceTest(), s.icc(), s.verdict(),
-                s.rule(), s.reasons(), l.centreNotes(), s.casesToAdjudicate(), s.readersToRecalibrate(), missed));
+                s.rule(), s.reasons(), l.centreNotes(), s.casesToAdjudicate(), s.readersToRecalibrate(), missed,
+                s.designLimitations(), s.emptyGroups(), s.masksToCorrect()));
         }
         Map<String, Integer> events = new TreeMap<>();
         for (String k : List.of(FlaggedEvent.MISSING_MASK, FlaggedEvent.EMPTY_MASK, FlaggedEvent.UNDEFINED_DISTANCES,

@@ -34,16 +34,19 @@ public final class Tables {
         "centre_b", "dice", "jaccard", "volume_a_ml", "volume_b_ml", "hd_mm", "hd95_mm", "assd_mm", "nsd", "flag");
     /** Columns of readers.csv. */
     public static final List<String> READERS = List.of("case", "label", "reader", "centre", "sensitivity",
-        "specificity", "dice_vs_consensus", "volume_ml", "volume_ratio", "signed_surface_mm", "reference");
+        "specificity", "dice_vs_consensus", "volume_ml", "volume_ratio", "signed_surface_mm", "reference",
+        "border_outside_share", "border_inside_share");
     /** Columns of centres.csv. */
     public static final List<String> CENTRES = List.of("label", "centre", "readers", "cases", "signed_surface_mm",
         "signed_surface_lo", "signed_surface_hi", "volume_ratio", "volume_ratio_lo", "volume_ratio_hi", "flag",
         "effect_mm", "effect_lo_mm", "effect_hi_mm", "effect_volume_ratio", "effect_volume_ratio_lo",
-        "effect_volume_ratio_hi", "test_p", "test_p_holm", "test_min_p", "test_splits", "finding");
+        "effect_volume_ratio_hi", "test_p", "test_p_holm", "test_min_p", "test_splits", "finding",
+        "border_outside_share", "border_outside_excess", "border_outside_excess_lo", "border_outside_excess_hi",
+        "border_inside_share", "border_inside_excess", "border_inside_excess_lo", "border_inside_excess_hi");
     /** Columns of cases.csv. */
     public static final List<String> CASES = List.of("case", "label", "readers_present", "readers_missing",
         "mean_dice", "median_dice", "worst_reader_a", "worst_reader_b", "worst_dice", "max_hd95_mm", "fleiss_kappa",
-        "flags", "adjudication_reason", "state", "readers_drawing");
+        "flags", "adjudication_reason", "state", "readers_drawing", "masks_to_correct");
     /** Columns of reader_summary.csv. */
     public static final List<String> READER_SUMMARY = List.of("label", "reader", "centre", "reference", "cases",
         "resamples", "sensitivity", "sensitivity_lo", "sensitivity_hi", "specificity", "specificity_lo",
@@ -92,7 +95,9 @@ public final class Tables {
     public static List<CsvTable.Cell> readerRow(ReaderPerformance p) {
         return List.of(text(p.caseId()), text(p.label()), text(p.reader()), text(p.centre()), number(p.sensitivity()),
             number(p.specificity()), number(p.diceVsConsensus()), number(p.volumeMl()), number(p.volumeRatio()),
-            number(p.signedSurfaceMm()), text(p.reference()));
+            number(p.signedSurfaceMm()), text(p.reference()),
+            number(p.border() == null ? Double.NaN : p.border().outsideShare()),
+            number(p.border() == null ? Double.NaN : p.border().insideShare()));
     }
 
     /** One row per label and centre. */
@@ -113,17 +118,25 @@ public final class Tables {
             number(c.volumeRatio()), number(c.volumeRatioLo()), number(c.volumeRatioHi()), text(c.flag()),
             number(c.effectMm()), number(c.effectLoMm()), number(c.effectHiMm()), number(c.effectVolumeRatio()),
             number(c.effectVolumeRatioLo()), number(c.effectVolumeRatioHi()), number(c.testP()),
-            number(c.testPAdjusted()), number(c.testMinP()), integer(c.testPermutations()), text(c.finding()));
+            number(c.testPAdjusted()), number(c.testMinP()), integer(c.testPermutations()), text(c.finding()),
+            number(c.outsideShare()), number(c.outsideExcess()), number(c.outsideExcessLo()),
+            number(c.outsideExcessHi()), number(c.insideShare()), number(c.insideExcess()),
+            number(c.insideExcessLo()), number(c.insideExcessHi()));
     }
 
     /** One row per case and label. */
     public static CsvTable cases(StudyResult r) {
         CsvTable t = new CsvTable(CASES);
         List<Map<String, CaseToAdjudicate>> adjudicate = new ArrayList<>();
+        List<Map<String, List<String>>> corrections = new ArrayList<>();
         for (LabelResult l : r.labels()) {
             Map<String, CaseToAdjudicate> m = new TreeMap<>();
             l.summary().casesToAdjudicate().forEach(a -> m.put(a.caseId(), a));
             adjudicate.add(m);
+            Map<String, List<String>> fix = new TreeMap<>();
+            l.summary().masksToCorrect().forEach(f -> fix.computeIfAbsent(f.caseId(), k -> new ArrayList<>())
+                .add(f.reader() + "=" + f.kind().key()));
+            corrections.add(fix);
         }
         for (CaseRecord c : r.cases()) {
             List<String> missing = new ArrayList<>();
@@ -146,7 +159,8 @@ public final class Tables {
                     number(worst == null ? Double.NaN : worst.dice()), number(sc.maxHd95Mm()),
                     number(ca.fleissKappa()), text(flags(c, sc)),
                     text(adj == null ? "" : String.join("; ", adj.reasons())), text(sc.state()),
-                    integer(sc.readersDrawing()));
+                    integer(sc.readersDrawing()),
+                    text(String.join(" ", corrections.get(s).getOrDefault(c.caseId(), List.of()))));
             }
         }
         return t;

@@ -90,9 +90,17 @@ public final class CentreFindings {
      * @param surfaceBeyond   the signed-surface interval lies beyond ±minimum
      * @param volumeBeyond    the volume interval lies beyond 1 ± minimum
      * @param volumeSupported volumeBeyond and the surface interval excludes 0 on the same side
+     * @param local           the centre's share of border beyond tolerance (null when not computed)
+     * @param localBeyond     its excess interval lies entirely above {@link LocalEffects#MINIMUM_EXCESS}
      */
     public record Finding(String centre, Kind kind, GroupEffect effect, CentreVsRest.Result test, String partner,
-            boolean surfaceBeyond, boolean volumeBeyond, boolean volumeSupported) {
+            boolean surfaceBeyond, boolean volumeBeyond, boolean volumeSupported, LocalEffect local,
+            boolean localBeyond) {
+        /** A finding without the local measure. */
+        public Finding(String centre, Kind kind, GroupEffect effect, CentreVsRest.Result test, String partner,
+                boolean surfaceBeyond, boolean volumeBeyond, boolean volumeSupported) {
+            this(centre, kind, effect, test, partner, surfaceBeyond, volumeBeyond, volumeSupported, null, false);
+        }
     }
 
     /**
@@ -120,6 +128,11 @@ public final class CentreFindings {
         public Finding of(String centre) {
             return findings.stream().filter(f -> f.centre().equals(centre)).findFirst().orElse(null);
         }
+
+        /** The same findings with every kind {@link Kind#NONE}: no centre is judged (an all-empty group). */
+        public Result withheld() {
+            return new Result(findings.stream().map(f -> with(f, Kind.NONE)).toList(), pair, method);
+        }
     }
 
     /**
@@ -128,6 +141,20 @@ public final class CentreFindings {
      * @param s          α and the minimum effects
      */
     public static Result judge(List<CentreVsRest.Result> tests, List<GroupEffect> effects, ShiftSettings s) {
+        return judge(tests, effects, List.of(), s);
+    }
+
+    /**
+     * As {@link #judge(List, List, ShiftSettings)}, with the centres' shares of border beyond the
+     * structure's tolerance ({@link LocalEffects}): a centre whose excess interval lies entirely above
+     * {@link LocalEffects#MINIMUM_EXCESS} counts as beyond the minimum like a surface or supported
+     * volume interval (a part added or left out on one side, which the mean distance and the volume
+     * dilute); {@link Finding#localBeyond()} says so.
+     */
+    public static Result judge(List<CentreVsRest.Result> tests, List<GroupEffect> effects, List<LocalEffect> local,
+            ShiftSettings s) {
+        Map<String, LocalEffect> localOf = new LinkedHashMap<>();
+        local.forEach(l -> localOf.put(l.centre(), l));
         Map<String, CentreVsRest.Result> testOf = new LinkedHashMap<>();
         tests.forEach(t -> testOf.put(t.centre(), t));
         List<GroupEffect> usable = effects.stream()
@@ -137,7 +164,8 @@ public final class CentreFindings {
         List<Finding> out = new ArrayList<>();
         if (usable.size() < 2) {
             for (GroupEffect e : effects) {
-                out.add(new Finding(e.group(), Kind.NONE, e, testOf.get(e.group()), null, false, false, false));
+                out.add(new Finding(e.group(), Kind.NONE, e, testOf.get(e.group()), null, false, false, false,
+                        localOf.get(e.group()), false));
             }
             out.sort(Comparator.comparing(Finding::centre));
             return new Result(out, false, CentreVsRest.method(usable.size()));
@@ -151,10 +179,12 @@ public final class CentreFindings {
             boolean volume = volumeBeyond && surfaceSameWay(e);
             boolean volumeAlone = volumeBeyond && !volume && !surface;
             boolean crosses = e.crossesMinimum(s.minimumShiftMm(), s.minimumVolumeShiftPercent());
+            LocalEffect l = localOf.get(e.group());
+            boolean localBeyond = l != null && l.beyond(LocalEffects.MINIMUM_EXCESS);
             Kind kind;
-            if (rejects && (surface || volume)) {
+            if (rejects && (surface || volume || localBeyond)) {
                 kind = pair ? Kind.PAIR_DIFFERS : Kind.SHIFT;
-            } else if (surface || volume) {
+            } else if (surface || volume || localBeyond) {
                 kind = Kind.EVIDENCE_DISAGREES;
             } else if (rejects && volumeAlone) {
                 kind = Kind.VOLUME_WITHOUT_SURFACE;
@@ -166,7 +196,7 @@ public final class CentreFindings {
                 kind = Kind.NONE;
             }
             judged.add(new Finding(e.group(), kind, e, t, pair ? usable.get(1).group() : null, surface, volumeBeyond,
-                    volume));
+                    volume, l, localBeyond));
         }
         // a flagged centre's shift shows at every other centre as a mirror of opposite sign (Δ_c is a
         // contrast with the others' mean): such findings at unflagged centres say nothing of their own
@@ -184,12 +214,13 @@ public final class CentreFindings {
             if (pair) {
                 GroupEffect other = usable.get(1);
                 out.add(new Finding(other.group(), g.kind(), g.effect(), testOf.get(other.group()), g.centre(),
-                        g.surfaceBeyond(), g.volumeBeyond(), g.volumeSupported()));
+                        g.surfaceBeyond(), g.volumeBeyond(), g.volumeSupported(), g.local(), g.localBeyond()));
             }
         }
         for (GroupEffect e : effects) {
             if (out.stream().noneMatch(f -> f.centre().equals(e.group()))) {
-                out.add(new Finding(e.group(), Kind.NONE, e, testOf.get(e.group()), null, false, false, false));
+                out.add(new Finding(e.group(), Kind.NONE, e, testOf.get(e.group()), null, false, false, false,
+                        localOf.get(e.group()), false));
             }
         }
         out.sort(Comparator.comparing(Finding::centre));
@@ -203,7 +234,7 @@ public final class CentreFindings {
 
     private static Finding with(Finding f, Kind kind) {
         return new Finding(f.centre(), kind, f.effect(), f.test(), f.partner(), f.surfaceBeyond(), f.volumeBeyond(),
-                f.volumeSupported());
+                f.volumeSupported(), f.local(), f.localBeyond());
     }
 
     /**

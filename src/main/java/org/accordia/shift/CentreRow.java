@@ -38,9 +38,33 @@ public record CentreRow(
         double testPAdjusted,
         double testMinP,
         long testPermutations,
-        String finding) {
+        String finding,
+        double outsideShare,
+        double outsideExcess,
+        double outsideExcessLo,
+        double outsideExcessHi,
+        double insideShare,
+        double insideExcess,
+        double insideExcessLo,
+        double insideExcessHi) {
+
+    /** A row without the local (border-beyond-tolerance) columns. */
+    public CentreRow(String label, String centre, int readers, int cases, double signedSurfaceMm,
+            double signedSurfaceLoMm, double signedSurfaceHiMm, double volumeRatio, double volumeRatioLo,
+            double volumeRatioHi, String flag, double effectMm, double effectLoMm, double effectHiMm,
+            double effectVolumeRatio, double effectVolumeRatioLo, double effectVolumeRatioHi, double testP,
+            double testPAdjusted, double testMinP, long testPermutations, String finding) {
+        this(label, centre, readers, cases, signedSurfaceMm, signedSurfaceLoMm, signedSurfaceHiMm, volumeRatio,
+                volumeRatioLo, volumeRatioHi, flag, effectMm, effectLoMm, effectHiMm, effectVolumeRatio,
+                effectVolumeRatioLo, effectVolumeRatioHi, testP, testPAdjusted, testMinP, testPermutations, finding,
+                Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN);
+    }
 
     static CentreRow of(String label, GroupEffect raw, CentreFindings.Finding f, GroupEffect delta) {
+        return of(label, raw, f, delta, null);
+    }
+
+    static CentreRow of(String label, GroupEffect raw, CentreFindings.Finding f, GroupEffect delta, LocalEffect l) {
         CentreVsRest.Result t = f == null ? null : f.test();
         double nan = Double.NaN;
         return new CentreRow(label, raw.group(), raw.readers(), raw.cases(), raw.signedSurfaceMm(),
@@ -51,6 +75,10 @@ public record CentreRow(
                 delta == null ? nan : delta.volumeRatioLo(), delta == null ? nan : delta.volumeRatioHi(),
                 t == null ? nan : t.pValue(), t == null ? nan : t.adjustedP(), t == null ? nan : t.minP(),
                 t == null ? 0 : t.permutations(),
-                f == null ? CentreFindings.Kind.NONE.key() : f.kind().key());
+                f == null ? CentreFindings.Kind.NONE.key() : f.kind().key(),
+                l == null ? nan : l.outsideShare(), l == null ? nan : l.outsideExcess(),
+                l == null ? nan : l.outsideExcessLo(), l == null ? nan : l.outsideExcessHi(),
+                l == null ? nan : l.insideShare(), l == null ? nan : l.insideExcess(),
+                l == null ? nan : l.insideExcessLo(), l == null ? nan : l.insideExcessHi());
     }
 }

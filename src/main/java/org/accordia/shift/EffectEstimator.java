@@ -139,7 +139,7 @@ public final class EffectEstimator {
     }
 
     /** Mean of the non-NaN values at the drawn indices (all indices when draw is null). */
-    private static double mean(double[] values, int[] draw) {
+    static double mean(double[] values, int[] draw) {
         double s = 0;
         int n = 0;
         int m = draw == null ? values.length : draw.length;
@@ -153,7 +153,7 @@ public final class EffectEstimator {
         return n == 0 ? Double.NaN : s / n;
     }
 
-    private static double[] percentileInterval(double[] replicates, int cases) {
+    static double[] percentileInterval(double[] replicates, int cases) {
         if (cases < 2) {
             return new double[] {Double.NaN, Double.NaN};
         }

@@ -1,7 +1,5 @@
 package org.accordia.shift;
 
-import java.util.Locale;
-
 /**
  * The systematic effect of one centre (or one reader) against the others' consensus, with 95 %
  * case-bootstrap percentile intervals (see {@link EffectEstimator}).
@@ -77,12 +75,24 @@ public record GroupEffect(
      * @param others how the comparison is named ("the other centres", "the other readers")
      */
     public String describe(String others) {
+        return describe(others, Double.NaN, Double.NaN);
+    }
+
+    /**
+     * As {@link #describe(String)}, with every number written with enough decimals to stand on the
+     * same side of 0 and of ±{@code minimumMm} (or 1 ± {@code minimumPercent} %) as its true value,
+     * so a sentence that says an interval lies beyond the minimum shows it ("[1.004, 1.6]", not
+     * "[1.0, 1.6]"). NaN minimums: compared with 0 only.
+     */
+    public String describe(String others, double minimumMm, double minimumPercent) {
         StringBuilder s = new StringBuilder();
         if (Double.isFinite(signedSurfaceMm)) {
             String side = signedSurfaceMm >= 0 ? "outside" : "inside";
-            s.append(String.format(Locale.ROOT, "draws %.1f mm %s %s %s", Math.abs(signedSurfaceMm),
-                    interval(signedSurfaceLoMm, signedSurfaceHiMm, signedSurfaceMm < 0, ""),
-                    side, others));
+            boolean flip = signedSurfaceMm < 0;
+            double[] t = Double.isNaN(minimumMm) ? new double[] {0} : new double[] {0, minimumMm};
+            s.append("draws ").append(Wording.beside(Math.abs(signedSurfaceMm), 1, t)).append(" mm ")
+                    .append(interval(signedSurfaceLoMm, signedSurfaceHiMm, flip, "", 1, t))
+                    .append(' ').append(side).append(' ').append(others);
         }
         if (Double.isFinite(volumeRatio)) {
             if (s.length() > 0) {
@@ -92,8 +102,10 @@ public record GroupEffect(
             String word = pct >= 0 ? "larger" : "smaller";
             double lo = (volumeRatioLo - 1) * 100;
             double hi = (volumeRatioHi - 1) * 100;
-            s.append(String.format(Locale.ROOT, "volumes %.0f%% %s %s than %s", Math.abs(pct),
-                    interval(lo, hi, pct < 0, "%"), word, others));
+            double[] t = Double.isNaN(minimumPercent) ? new double[] {0} : new double[] {0, minimumPercent};
+            s.append("volumes ").append(Wording.beside(Math.abs(pct), 0, t)).append("% ")
+                    .append(interval(lo, hi, pct < 0, "%", 0, t)).append(' ').append(word).append(" than ")
+                    .append(others);
         }
         return s.length() == 0 ? "no usable measurements" : s.toString();
     }
@@ -103,14 +115,13 @@ public record GroupEffect(
      * and swapped for a negative one, so "inside [0.9, 1.6]" reads in the same direction as the
      * estimate and an interval that crosses 0 shows a negative bound.
      */
-    private static String interval(double a, double b, boolean flip, String unit) {
+    private static String interval(double a, double b, boolean flip, String unit, int decimals, double[] thresholds) {
         if (!Double.isFinite(a) || !Double.isFinite(b)) {
             return "[interval not available]";
         }
         double lo = flip ? -b : a;
         double hi = flip ? -a : b;
-        return unit.equals("%")
-                ? String.format(Locale.ROOT, "[%.0f%%, %.0f%%]", lo, hi)
-                : String.format(Locale.ROOT, "[%.1f, %.1f]", lo, hi);
+        return "[" + Wording.beside(lo, decimals, thresholds) + unit + ", " + Wording.beside(hi, decimals, thresholds)
+                + unit + "]";
     }
 }

@@ -23,6 +23,8 @@ import java.util.Map;
  *                             (empty: no variance components)
  * @param caseSummaries        per case: median Dice, max HD95, one-empty pairs, readers present
  * @param volumesMl            complete cases × readers volume matrix for the ICC side table, or null
+ * @param maskLabels           per reader and case: structure voxels and label counts (empty
+ *                             centres and readers, {@link EmptyGroups}); may be empty
  */
 public record LabelShiftInput(
         int label,
@@ -36,9 +38,20 @@ public record LabelShiftInput(
         String varianceMeasureName,
         List<ReaderMeasure> varianceMeasures,
         List<CaseSummary> caseSummaries,
-        double[][] volumesMl) {
+        double[][] volumesMl,
+        List<MaskLabels> maskLabels) {
+
+    /** An input without mask labels. */
+    public LabelShiftInput(int label, String name, String distanceName, Map<String, String> readerCentre,
+            List<CaseDistances> distances, List<ReaderCaseMeasure> centreMeasures,
+            List<ReaderCaseMeasure> readerMeasures, List<ReaderCaseMeasure> commonMeasures, String varianceMeasureName,
+            List<ReaderMeasure> varianceMeasures, List<CaseSummary> caseSummaries, double[][] volumesMl) {
+        this(label, name, distanceName, readerCentre, distances, centreMeasures, readerMeasures, commonMeasures,
+                varianceMeasureName, varianceMeasures, caseSummaries, volumesMl, List.of());
+    }
 
     public LabelShiftInput {
+        maskLabels = List.copyOf(maskLabels);
         readerCentre = Map.copyOf(readerCentre);
         distances = List.copyOf(distances);
         centreMeasures = List.copyOf(centreMeasures);

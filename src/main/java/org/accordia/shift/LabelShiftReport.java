@@ -9,6 +9,8 @@ import java.util.List;
  * one common reference the flag judges ({@link CentreContrasts}); {@code centreTests} each centre's
  * own test ({@link CentreVsRest}); {@code centreFindings} the centre-flag decision
  * ({@link CentreFindings}).
+ * {@code localEffects} the centres' shares of border beyond tolerance ({@link LocalEffects}; empty
+ * when the per-case records carry no border profiles).
  */
 public record LabelShiftReport(
         LabelShiftSummary summary,
@@ -21,9 +23,11 @@ public record LabelShiftReport(
         Icc.Result icc,
         List<CentreContrasts.Contrast> centreContrasts,
         List<CentreVsRest.Result> centreTests,
-        CentreFindings.Result centreFindings) {
+        CentreFindings.Result centreFindings,
+        List<LocalEffect> localEffects) {
 
     public LabelShiftReport {
+        localEffects = List.copyOf(localEffects);
         centreRows = List.copyOf(centreRows);
         centreEffects = List.copyOf(centreEffects);
         readerEffects = List.copyOf(readerEffects);

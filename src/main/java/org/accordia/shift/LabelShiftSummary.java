@@ -11,7 +11,8 @@ import com.fasterxml.jackson.annotation.JsonPropertyOrder;
  * names, NaN written as null).
  */
 @JsonPropertyOrder({"label", "name", "shift", "variance_measure", "variance_components", "variance_interval_method",
-    "centre_variance_test", "icc", "verdict", "rule", "reasons", "cases_to_adjudicate", "readers_to_recalibrate"})
+    "centre_variance_test", "icc", "verdict", "rule", "reasons", "cases_to_adjudicate", "readers_to_recalibrate", "design_limitations", "empty_groups",
+    "masks_to_correct"})
 public record LabelShiftSummary(
         @JsonProperty("label") int label,
         @JsonProperty("name") String name,
@@ -25,7 +26,10 @@ public record LabelShiftSummary(
         @JsonProperty("rule") String rule,
         @JsonProperty("reasons") List<String> reasons,
         @JsonProperty("cases_to_adjudicate") List<CaseToAdjudicate> casesToAdjudicate,
-        @JsonProperty("readers_to_recalibrate") List<ReaderToRecalibrate> readersToRecalibrate) {
+        @JsonProperty("readers_to_recalibrate") List<ReaderToRecalibrate> readersToRecalibrate,
+        @JsonProperty("design_limitations") List<DesignLimit> designLimitations,
+        @JsonProperty("empty_groups") List<EmptyGroup> emptyGroups,
+        @JsonProperty("masks_to_correct") List<MaskToCorrect> masksToCorrect) {
 
     public LabelShiftSummary {
         varianceComponents = java.util.Collections.unmodifiableMap(new java.util.LinkedHashMap<>(varianceComponents));
@@ -33,6 +37,25 @@ public record LabelShiftSummary(
         reasons = List.copyOf(reasons);
         casesToAdjudicate = List.copyOf(casesToAdjudicate);
         readersToRecalibrate = List.copyOf(readersToRecalibrate);
+        designLimitations = List.copyOf(designLimitations);
+        emptyGroups = List.copyOf(emptyGroups);
+        masksToCorrect = List.copyOf(masksToCorrect);
+    }
+
+    /** A summary without design limitations, empty groups or masks to correct. */
+    public LabelShiftSummary(int label, String name, Shift shift, String varianceMeasure,
+            Map<String, Component> varianceComponents, String varianceIntervalMethod,
+            CentreVarianceTest centreVarianceTest, List<IccForm> icc, Verdict verdict, String rule, List<String> reasons,
+            List<CaseToAdjudicate> casesToAdjudicate, List<ReaderToRecalibrate> readersToRecalibrate) {
+        this(label, name, shift, varianceMeasure, varianceComponents, varianceIntervalMethod, centreVarianceTest, icc,
+                verdict, rule, reasons, casesToAdjudicate, readersToRecalibrate, List.of(), List.of(), List.of());
+    }
+
+    /** The same summary with another partition-and-test block (e.g. flagged centres reordered). */
+    public LabelShiftSummary withShift(Shift newShift) {
+        return new LabelShiftSummary(label, name, newShift, varianceMeasure, varianceComponents, varianceIntervalMethod,
+                centreVarianceTest, icc, verdict, rule, reasons, casesToAdjudicate, readersToRecalibrate,
+                designLimitations, emptyGroups, masksToCorrect);
     }
 
     /** The distance-based partition and its permutation test. */

@@ -192,10 +192,10 @@ public final class PermutationTest {
                         + (total == 1 ? "" : "s")
                 : "only " + total + " random permutations were drawn";
         return String.format(Locale.ROOT,
-                "With readers per centre (%s) %s, so the smallest attainable p-value is %.4g, above "
-                        + "alpha = %.4g: this design cannot show a centre effect at that level whatever the "
+                "With readers per centre (%s) %s, so the smallest attainable p-value is %s, above "
+                        + "%s: this design cannot show a centre effect at that level whatever the "
                         + "data, and a non-significant result is not evidence that there is no shift.",
-                sizes, how, minP, alpha);
+                sizes, how, Wording.plain(minP, 3), Wording.alpha(alpha));
     }
 
     private static BigInteger factorial(int n) {

@@ -44,6 +44,35 @@ class InspectCommandTest {
 
     static final Geometry G = Geometry.axisAligned(4, 4, 2, 1, 1, 1);
 
+    /** Two centres of three readers and a one-reader centre: the design warnings, before any analysis. */
+    @Test
+    void designsThatCannotAnswerAreWarnedAbout() throws Exception {
+        Path two = tmp.resolve("two");
+        for (String c : new String[] {"esterhaven", "norvale"}) {
+            for (int r = 1; r <= 3; r++) {
+                mask(two.resolve(c).resolve(c.substring(0, 3) + r).resolve("case01.nii.gz"), G);
+            }
+        }
+        CliRun r = run("inspect", two.toString());
+        assertEquals(0, r.code(), r.out() + r.err());
+        String o = r.out();
+        assertTrue(o.contains("Design warnings (what this roster cannot answer, whatever the masks show):"), o);
+        assertTrue(o.contains("  warning: The readers can be split between the centres in only 10 distinct ways, so the "
+            + "smallest reachable p-value is 0.1, above α = 0.05"), o);
+        assertTrue(o.contains("  warning: With two centres (esterhaven and norvale) each is measured against the other"), o);
+        Path one = tmp.resolve("one");
+        mask(one.resolve("esterhaven/est1/case01.nii.gz"), G);
+        mask(one.resolve("esterhaven/est2/case01.nii.gz"), G);
+        mask(one.resolve("norvale/nor1/case01.nii.gz"), G);
+        mask(one.resolve("norvale/nor2/case01.nii.gz"), G);
+        mask(one.resolve("quillbay/qui1/case01.nii.gz"), G);
+        o = run("inspect", one.toString()).out();
+        assertTrue(o.contains("  warning: Centre quillbay has one reader: a shift there cannot be told apart from that "
+            + "reader's own bias"), o);
+        // the demo's 3 x 3 roster can answer: no design warning
+        assertFalse(run("inspect", demo.toString(), "--protocol", "protocols/demo.yaml").out().contains("Design warnings"));
+    }
+
     @Test
     void demoStudyIsAnalysableAndListed() {
         CliRun r = run("inspect", demo.toString(), "--protocol", "protocols/demo.yaml");

@@ -142,6 +142,17 @@ class SignedSurfaceTest {
         return b;
     }
 
+    /** The thresholded reference consensus behind a row, on the full grid, from the readers' masks. */
+    static boolean[] referenceMask(CaseReferences refs, ReaderPerformance row, int j, boolean[][] d) {
+        long keep = refs.keepMask(row.reference(), j);
+        StapleResult s = refs.staple(row.reference(), j);
+        boolean[] cons = new boolean[d[0].length];
+        for (int i = 0; i < cons.length; i++) {
+            cons[i] = s.weightOfPattern(PatternHistogram.compress(Fixtures.pattern(d, i), keep)) >= 0.5;
+        }
+        return cons;
+    }
+
     @ParameterizedTest(name = "seed {0}, nz {1}")
     @CsvSource({"11, 6", "12, 6", "13, 6", "14, 1"}) // nz = 1: a 2-D image (4-connectivity)
     void caseReferencesMatchFullGridBruteForce(long seed, int nz) {
@@ -170,12 +181,7 @@ class SignedSurfaceTest {
         assertEquals(5 + 5 + 5, rows.size());
         for (ReaderPerformance row : rows) {
             int j = readers.indexOf(row.reader());
-            long keep = refs.keepMask(row.reference(), j);
-            StapleResult s = refs.staple(row.reference(), j);
-            boolean[] cons = new boolean[d[0].length];
-            for (int i = 0; i < cons.length; i++) {
-                cons[i] = s.weightOfPattern(org.accordia.agreement.PatternHistogram.compress(Fixtures.pattern(d, i), keep)) >= 0.5;
-            }
+            boolean[] cons = referenceMask(refs, row, j, d);
             assertEquals(bruteForce(d[j], cons, nx, ny, nz, sp), row.signedSurfaceMm(), 1e-9,
                 row.reader() + " " + row.reference());
         }

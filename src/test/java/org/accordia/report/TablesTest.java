@@ -43,10 +43,15 @@ class TablesTest {
         ReaderPerformance r = new ReaderPerformance("case1", "liver", "r2", "north", 0.8, 1.0, 2.0 / 3,
             12.5, Double.POSITIVE_INFINITY, Double.NaN, "others");
         assertEquals("case,label,reader,centre,sensitivity,specificity,dice_vs_consensus,volume_ml,volume_ratio,"
-            + "signed_surface_mm,reference", String.join(",", Tables.READERS));
-        // an infinite ratio (empty reference) is undefined: empty like NaN
-        assertEquals(List.of("case1", "liver", "r2", "north", "0.8", "1", "0.666667", "12.5", "", "", "others"),
+            + "signed_surface_mm,reference,border_outside_share,border_inside_share", String.join(",", Tables.READERS));
+        // an infinite ratio (empty reference) is undefined: empty like NaN; no border profile: empty
+        assertEquals(List.of("case1", "liver", "r2", "north", "0.8", "1", "0.666667", "12.5", "", "", "others", "", ""),
             rendered(Tables.readerRow(r)));
+        long[] six = {10, 0, 0, 0, 0, 0};
+        ReaderPerformance withBorder = r.withSurface(0.4, new org.accordia.consensus.BorderProfile(2.0, 40, 10, 2,
+            new long[] {40, 0, 0, 0, 0, 0}, six));
+        List<String> cells = rendered(Tables.readerRow(withBorder));
+        assertEquals(List.of("0.4", "others", "0.25", "0.05"), cells.subList(9, 13));
     }
 
     @Test
@@ -54,12 +59,14 @@ class TablesTest {
         assertEquals(List.of("label", "centre", "readers", "cases", "signed_surface_mm", "signed_surface_lo",
             "signed_surface_hi", "volume_ratio", "volume_ratio_lo", "volume_ratio_hi", "flag", "effect_mm",
             "effect_lo_mm", "effect_hi_mm", "effect_volume_ratio", "effect_volume_ratio_lo", "effect_volume_ratio_hi",
-            "test_p", "test_p_holm", "test_min_p", "test_splits", "finding"), Tables.CENTRES);
+            "test_p", "test_p_holm", "test_min_p", "test_splits", "finding", "border_outside_share",
+            "border_outside_excess", "border_outside_excess_lo", "border_outside_excess_hi", "border_inside_share",
+            "border_inside_excess", "border_inside_excess_lo", "border_inside_excess_hi"), Tables.CENTRES);
         CentreRow row = new CentreRow("lesion", "hill", 3, 12, -0.25, Double.NaN, 0.125, 1.0, 0.9876543219, 1.1, "none",
             -0.5, -0.875, -0.125, 0.8, 0.7, 0.9, 0.25, 0.75, 1.0 / 84, 84, "none");
         assertEquals(List.of("lesion", "hill", "3", "12", "-0.25", "", "0.125", "1", "0.987654", "1.1", "none",
-            "-0.5", "-0.875", "-0.125", "0.8", "0.7", "0.9", "0.25", "0.75", "0.0119048", "84", "none"),
-            rendered(Tables.centreRow(row)));
+            "-0.5", "-0.875", "-0.125", "0.8", "0.7", "0.9", "0.25", "0.75", "0.0119048", "84", "none",
+            "", "", "", "", "", "", "", ""), rendered(Tables.centreRow(row)));
     }
 
     @Test

@@ -249,7 +249,7 @@ class ReaderPermutationTest {
         assertEquals(1.0 / 3, r.minP(), 1e-15);
         assertFalse(r.canReachAlpha());
         assertTrue(r.statement().contains("cannot show a centre effect"), r.statement());
-        assertTrue(r.statement().contains("0.3333"), r.statement());
+        assertTrue(r.statement().contains("is 0.333, above α = 0.05"), r.statement());
         assertEquals(naivePermutationP(cases, centreOf, readers)[0], r.pValue(), 1e-12);
     }
 

@@ -29,11 +29,16 @@ class ReviewListsTest {
         List<ReaderToRecalibrate> out = ReviewLists.readersToRecalibrate(List.of(
                 new GroupEffect("r1", "north", 1, 12, 1.6, 1.2, 2.0, 1.0, 0.9, 1.1),
                 new GroupEffect("r2", "north", 1, 12, 0.6, 0.2, 1.2, 1.0, 0.9, 1.1),
-                new GroupEffect("r3", "south", 1, 12, -0.1, -0.4, 0.2, 0.7, 0.6, 0.78)), s);
-        assertEquals(List.of("r1", "r3"), out.stream().map(ReaderToRecalibrate::reader).toList());
+                new GroupEffect("r3", "south", 1, 12, -0.1, -0.4, 0.2, 0.7, 0.6, 0.78),
+                new GroupEffect("r4", "south", 1, 12, -0.6, -0.9, -0.3, 0.7, 0.6, 0.78)), s);
+        // r3: volume 30 % smaller but the boundary does not move inside with confidence (surface
+        // interval [-0.4, 0.2] holds 0): volume alone does not name a reader, as for centres.
+        // r4: the same volume with the surface interval entirely inside: named.
+        assertEquals(List.of("r1", "r4"), out.stream().map(ReaderToRecalibrate::reader).toList());
         assertTrue(out.get(0).reasons().get(0).startsWith("draws 1.6 mm [1.2, 2.0] outside the other readers' consensus"),
                 out.get(0).reasons().toString());
         assertTrue(out.get(1).reasons().get(0).startsWith("volumes 30% [22%, 40%] smaller"), out.get(1).reasons().toString());
+        assertTrue(out.get(1).reasons().get(0).endsWith("with the boundary moving the same way"), out.get(1).reasons().toString());
         assertEquals("south", out.get(1).centre());
     }
 }

@@ -153,7 +153,8 @@ class ShiftAnalysisTest {
         root.fieldNames().forEachRemaining(top::add);
         assertEquals(List.of("label", "name", "shift", "variance_measure", "variance_components",
                 "variance_interval_method", "centre_variance_test", "icc", "verdict", "rule", "reasons",
-                "cases_to_adjudicate", "readers_to_recalibrate"), top);
+                "cases_to_adjudicate", "readers_to_recalibrate", "design_limitations", "empty_groups",
+                "masks_to_correct"), top);
         JsonNode shift = root.get("shift");
         for (String f : List.of("between_share", "pseudo_f", "p_value", "permutations", "exact", "min_p", "flagged_centres")) {
             assertNotNull(shift.get(f), f);
