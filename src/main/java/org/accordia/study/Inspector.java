@@ -123,7 +123,8 @@ public final class Inspector {
                 }
             }
         }
-        if (!study.cases().isEmpty()) {
+        // judged only when some mask could be read: with none, the read errors already say why
+        if (cases.stream().anyMatch(c -> c.geometry() != null)) {
             StudyProblem nothing = Analysability.noStructureVoxels(structures, labels, where);
             if (nothing != null) {
                 problems.add(nothing);
