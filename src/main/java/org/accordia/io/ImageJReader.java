@@ -251,6 +251,12 @@ public final class ImageJReader implements VolumeReader {
                 throw new InputException(file, "TIFF directory " + (d + 1) + ": pixel data offset " + fi.getOffset()
                     + " lies outside the file (" + size + " bytes)");
             }
+            if (d > 0 && fi.getOffset() < info[d - 1].getOffset()) {
+                // ImageJ reads a stack's planes in one forward pass; a plane stored before the one
+                // it follows sends some of its pixel loops spinning on the end of the stream
+                throw new InputException(file, "TIFF directory " + (d + 1) + ": pixel data at offset " + fi.getOffset()
+                    + " lies before the previous plane's (" + info[d - 1].getOffset() + "); planes must be stored in order");
+            }
             if (fi.compression <= FileInfo.COMPRESSION_NONE) {
                 if (end > size) {
                     throw new InputException(file, "truncated data: TIFF directory " + (d + 1) + " declares " + pixelBytes
